@@ -1,0 +1,137 @@
+// The driver around the X3 grammar: one line at a time, with error recovery and messages.
+#include "syntax/parser.h"
+
+#include <fmt/format.h>
+
+#include "rules.h"  // grammar/rules.h
+#include "syntax/suggest.h"
+
+namespace rungs::syntax {
+
+namespace x3 = boost::spirit::x3;
+
+namespace {
+
+bool is_blank(char c) { return c == ' ' || c == '\t'; }
+bool is_line_end(char c) { return c == '\n' || c == '\r'; }
+bool is_word_char(char c) {
+  return (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z') || (c >= '0' && c <= '9') || c == '_';
+}
+
+/// The token that starts at `at`: a word, or a run of other non-blank characters.
+Span token_at(const std::string& text, std::size_t at) {
+  while (at < text.size() && is_blank(text[at])) ++at;
+  std::size_t end = at;
+  if (end < text.size() && is_word_char(text[end])) {
+    while (end < text.size() && is_word_char(text[end])) ++end;
+  } else {
+    while (end < text.size() && !is_blank(text[end]) && !is_line_end(text[end]) &&
+           !is_word_char(text[end]))
+      ++end;
+  }
+  return {at, end};
+}
+
+std::string describe_found(const SourceFile& file, Span token) {
+  if (token.begin == token.end || file.text[token.begin] == '#') return "the end of the line";
+  return fmt::format("'{}'", file.slice(token));
+}
+
+bool is_name(std::string_view token) {
+  return !token.empty() && !(token[0] >= '0' && token[0] <= '9') &&
+         std::all_of(token.begin(), token.end(), is_word_char);
+}
+
+/// The first token of the line that starts at `line_begin`: the statement keyword.
+Span first_token(const SourceFile& file, std::size_t line_begin) {
+  std::size_t i = line_begin;
+  while (i < file.text.size() && is_blank(file.text[i])) ++i;
+  return token_at(file.text, i);
+}
+
+/// The message for a line whose statement parsed but was followed by something else.
+std::string leftover_message(std::string_view keyword, std::string_view found_text,
+                             const std::string& found) {
+  if (keyword == "load" && (found_text == "+" || found_text == "||"))
+    return "'+' and '||' cannot be mixed without brackets; write for example "
+           "(50ohm + 1nF) || 10kohm";
+  if (keyword == "load" && !found_text.empty() && !is_name(found_text) && found_text != "#")
+    return fmt::format("expected '+' (series) or '||' (parallel) between load values, found {}",
+                       found);
+  if (is_name(found_text))
+    return fmt::format("expected key=value or the end of the line, found {}; "
+                       "a parameter is written {}=VALUE",
+                       found, found_text);
+  return fmt::format("expected key=value or the end of the line, found {}", found);
+}
+
+std::string expectation_message(const SourceFile& file, std::size_t line_begin,
+                                std::string_view which, Span token) {
+  const std::string found = describe_found(file, token);
+  const std::string_view found_text = file.slice(token);
+  const Span keyword_token = first_token(file, line_begin);
+  const std::string_view keyword = file.slice(keyword_token);
+  const bool at_line_start = token.begin == keyword_token.begin;
+
+  if (which == grammar::end_of_line.name) {
+    if (at_line_start) {
+      if (is_name(found_text))
+        return fmt::format("unknown statement {}{}", found, did_you_mean(found_text, kStatementKeywords));
+      return fmt::format("expected a statement (design, set, line, drive or load), found {}",
+                         found);
+    }
+    return leftover_message(keyword, found_text, found);
+  }
+  if (which == grammar::node.name && keyword == "line" && found_text == "->")
+    return "expected a line name before its ends: line NAME NEAR -> FAR MODEL key=value...";
+  if (which == grammar::waveform.name && is_name(found_text)) {
+    static constexpr std::string_view kinds[] = {"step", "pulse", "dc"};
+    return fmt::format("unknown waveform {}{}", found, did_you_mean(found_text, kinds));
+  }
+  if (which == grammar::load_network.name && is_name(found_text)) {
+    static constexpr std::string_view kinds[] = {"open", "short"};
+    const std::string near = nearest(found_text, kinds);
+    if (!near.empty())
+      return fmt::format("expected a load, found {}; did you mean '{}'?", found, near);
+  }
+  return fmt::format("expected {}, found {}", which, found);
+}
+
+}  // namespace
+
+ast::Description parse_description(Diagnostics& diagnostics, std::set<std::string>* productions) {
+  const SourceFile& file = diagnostics.file();
+  const char* const base = file.text.data();
+  const char* const end = base + file.text.size();
+  grammar::Trace trace;
+  ast::Description description;
+
+  const auto parser = x3::with<grammar::base_tag>(base)[x3::with<grammar::trace_tag>(
+      &trace)[grammar::line_of_text]];
+  const char* at = base;
+  while (at != end) {
+    const char* line_begin = at;
+    std::optional<ast::Statement> statement;
+    try {
+      if (x3::phrase_parse(at, end, parser, x3::blank, statement) && statement)
+        description.statements.push_back(std::move(*statement));
+    } catch (const x3::expectation_failure<const char*>& failure) {
+      const Span token = token_at(file.text, static_cast<std::size_t>(failure.where() - base));
+      diagnostics.error(token, expectation_message(file, static_cast<std::size_t>(line_begin - base),
+                                                   failure.which(), token));
+      at = std::find(failure.where(), end, '\n');
+      if (at != end) ++at;
+    }
+    if (at == line_begin) {  // defensive: never loop on input the grammar does not consume
+      at = std::find(at, end, '\n');
+      if (at != end) ++at;
+    }
+  }
+  if (productions) {
+    productions->insert(trace.begin(), trace.end());
+    productions->insert("description");
+  }
+  return description;
+}
+
+}  // namespace rungs::syntax

@@ -1,0 +1,334 @@
+// Unit tables and the reading of value tokens into SI values.
+#include "syntax/units.h"
+
+#include <array>
+#include <charconv>
+#include <cmath>
+#include <map>
+#include <vector>
+
+#include <fmt/format.h>
+
+#include "syntax/suggest.h"
+
+namespace rungs::syntax {
+
+namespace {
+
+constexpr double kSpeedOfLight = 299792458.0;
+
+struct Prefix {
+  std::string_view symbol;
+  double scale;
+};
+// Case-sensitive, as in SI: m is milli and M is mega. Both micro signs are accepted.
+constexpr std::array<Prefix, 13> kPrefixes = {{{"f", 1e-15},
+                                               {"p", 1e-12},
+                                               {"n", 1e-9},
+                                               {"u", 1e-6},
+                                               {"\xC2\xB5", 1e-6},
+                                               {"\xCE\xBC", 1e-6},
+                                               {"m", 1e-3},
+                                               {"", 1.0},
+                                               {"k", 1e3},
+                                               {"M", 1e6},
+                                               {"G", 1e9},
+                                               {"T", 1e12},
+                                               {"c", 1e-2}}};
+
+constexpr std::array<Dimension, 15> kAllDimensions = {
+    Dimension::length,      Dimension::time,
+    Dimension::resistance,  Dimension::capacitance,
+    Dimension::inductance,  Dimension::conductance,
+    Dimension::voltage,     Dimension::frequency,
+    Dimension::speed,       Dimension::inductance_per_length,
+    Dimension::capacitance_per_length, Dimension::resistance_per_length,
+    Dimension::conductance_per_length, Dimension::ratio,
+    Dimension::count};
+
+using UnitTable = std::map<std::string, double, std::less<>>;
+
+/// Every spelling of a unit with its prefixes, e.g. {"ohm", "mohm", "kohm", "Mohm", ...}.
+void add_prefixed(UnitTable& table, std::string_view base, double scale = 1.0) {
+  for (const Prefix& p : kPrefixes) {
+    if (p.symbol == "c") continue;  // centi only for the metre
+    table.emplace(std::string(p.symbol) + std::string(base), p.scale * scale);
+  }
+}
+
+UnitTable length_units() {
+  UnitTable t;
+  add_prefixed(t, "m");
+  t.emplace("cm", 1e-2);
+  t.emplace("mil", 25.4e-6);
+  t.emplace("in", 25.4e-3);
+  t.emplace("ft", 0.3048);
+  return t;
+}
+
+UnitTable per_length_units(std::initializer_list<std::string_view> bases) {
+  static const std::array<std::pair<std::string_view, double>, 6> per = {
+      {{"m", 1.0}, {"cm", 1e-2}, {"mm", 1e-3}, {"in", 25.4e-3}, {"ft", 0.3048}, {"mil", 25.4e-6}}};
+  UnitTable t;
+  for (std::string_view base : bases) {
+    for (const auto& [length, metres] : per) {
+      add_prefixed(t, fmt::format("{}/{}", base, length), 1.0 / metres);
+    }
+  }
+  return t;
+}
+
+const UnitTable& units_of(Dimension d) {
+  static const std::map<Dimension, UnitTable> tables = [] {
+    std::map<Dimension, UnitTable> m;
+    m[Dimension::length] = length_units();
+    add_prefixed(m[Dimension::time], "s");
+    for (std::string_view ohm : {"ohm", "\xCE\xA9", "\xE2\x84\xA6"}) add_prefixed(m[Dimension::resistance], ohm);
+    add_prefixed(m[Dimension::capacitance], "F");
+    add_prefixed(m[Dimension::inductance], "H");
+    add_prefixed(m[Dimension::conductance], "S");
+    add_prefixed(m[Dimension::voltage], "V");
+    add_prefixed(m[Dimension::frequency], "Hz");
+    for (const auto& [unit, scale] : length_units()) {
+      m[Dimension::speed].emplace(unit + "/s", scale);
+    }
+    m[Dimension::speed].emplace("c", kSpeedOfLight);
+    m[Dimension::inductance_per_length] = per_length_units({"H"});
+    m[Dimension::capacitance_per_length] = per_length_units({"F"});
+    m[Dimension::resistance_per_length] = per_length_units({"ohm", "\xCE\xA9", "\xE2\x84\xA6"});
+    m[Dimension::conductance_per_length] = per_length_units({"S"});
+    m[Dimension::ratio] = {{"", 1.0}, {"%", 0.01}};
+    m[Dimension::count] = {{"", 1.0}};
+    return m;
+  }();
+  return tables.at(d);
+}
+
+/// The usual unit of a dimension, for "write 50ohm".
+std::string_view usual_unit(Dimension d) {
+  switch (d) {
+    case Dimension::length: return "mm";
+    case Dimension::time: return "ns";
+    case Dimension::resistance: return "ohm";
+    case Dimension::capacitance: return "pF";
+    case Dimension::inductance: return "nH";
+    case Dimension::conductance: return "mS";
+    case Dimension::voltage: return "V";
+    case Dimension::frequency: return "MHz";
+    case Dimension::speed: return "c";
+    case Dimension::inductance_per_length: return "nH/m";
+    case Dimension::capacitance_per_length: return "pF/m";
+    case Dimension::resistance_per_length: return "ohm/m";
+    case Dimension::conductance_per_length: return "uS/m";
+    case Dimension::ratio: return "%";
+    case Dimension::count: return "";
+  }
+  return "";
+}
+
+/// The unit without its prefix, for "write 1Mohm".
+std::string_view base_unit(Dimension d) {
+  switch (d) {
+    case Dimension::length: return "m";
+    case Dimension::time: return "s";
+    case Dimension::resistance: return "ohm";
+    case Dimension::capacitance: return "F";
+    case Dimension::inductance: return "H";
+    case Dimension::conductance: return "S";
+    case Dimension::voltage: return "V";
+    case Dimension::frequency: return "Hz";
+    case Dimension::speed: return "m/s";
+    case Dimension::inductance_per_length: return "H/m";
+    case Dimension::capacitance_per_length: return "F/m";
+    case Dimension::resistance_per_length: return "ohm/m";
+    case Dimension::conductance_per_length: return "S/m";
+    case Dimension::ratio:
+    case Dimension::count: return "";
+  }
+  return "";
+}
+
+struct Split {
+  std::string_view number;
+  std::string_view unit;
+};
+
+/// Splits "42.5e-3mm" into its number and unit, by the grammar's `number` production;
+/// an empty number means the token does not start with one.
+Split split_number(std::string_view token) {
+  std::size_t i = 0;
+  auto digits = [&] {
+    std::size_t start = i;
+    while (i < token.size() && token[i] >= '0' && token[i] <= '9') ++i;
+    return i > start;
+  };
+  if (i < token.size() && (token[i] == '+' || token[i] == '-')) ++i;
+  const bool whole = digits();
+  bool fraction = false;
+  if (i < token.size() && token[i] == '.') {
+    ++i;
+    fraction = digits();
+  }
+  if (!whole && !fraction) return {{}, token};
+  if (i < token.size() && (token[i] == 'e' || token[i] == 'E')) {
+    std::size_t mark = i++;
+    if (i < token.size() && (token[i] == '+' || token[i] == '-')) ++i;
+    if (!digits()) i = mark;
+  }
+  return {token.substr(0, i), token.substr(i)};
+}
+
+double to_double(std::string_view number) {
+  if (!number.empty() && number.front() == '+') number.remove_prefix(1);
+  double value = 0.0;
+  std::from_chars(number.data(), number.data() + number.size(), value);
+  return value;
+}
+
+bool is_prefix_only(std::string_view unit) {
+  for (const Prefix& p : kPrefixes) {
+    if (!p.symbol.empty() && unit == p.symbol) return true;
+  }
+  return false;
+}
+
+bool starts_with_meg(std::string_view unit) {
+  return unit.size() >= 3 && (unit[0] | 0x20) == 'm' && (unit[1] | 0x20) == 'e' &&
+         (unit[2] | 0x20) == 'g';
+}
+
+std::string missing_unit_message(std::string_view token, std::string_view number,
+                                 std::string_view unit, Dimension d) {
+  if (unit.empty()) {
+    if (d == Dimension::speed)
+      return fmt::format("'{}' needs a unit: write {}c for a fraction of the speed of light, or a "
+                         "speed in m/s",
+                         token, number);
+    return fmt::format("'{}' needs a unit: write {}{} for {}", token, number, usual_unit(d),
+                       dimension_noun(d));
+  }
+  if (unit == "M")
+    return fmt::format("'{}' has a prefix but no unit, and a simulator would read M as milli: "
+                       "write {}M{} for mega or {}m{} for milli",
+                       token, number, base_unit(d), number, base_unit(d));
+  return fmt::format("'{}' has a prefix but no unit: write {}{}{}", token, number, unit,
+                     base_unit(d));
+}
+
+}  // namespace
+
+std::string_view dimension_noun(Dimension d) {
+  switch (d) {
+    case Dimension::length: return "a length";
+    case Dimension::time: return "a time";
+    case Dimension::resistance: return "a resistance";
+    case Dimension::capacitance: return "a capacitance";
+    case Dimension::inductance: return "an inductance";
+    case Dimension::conductance: return "a conductance";
+    case Dimension::voltage: return "a voltage";
+    case Dimension::frequency: return "a frequency";
+    case Dimension::speed: return "a speed";
+    case Dimension::inductance_per_length: return "an inductance per length";
+    case Dimension::capacitance_per_length: return "a capacitance per length";
+    case Dimension::resistance_per_length: return "a resistance per length";
+    case Dimension::conductance_per_length: return "a conductance per length";
+    case Dimension::ratio: return "a plain number or a percentage";
+    case Dimension::count: return "a whole number";
+  }
+  return "a value";
+}
+
+std::string_view dimension_example(Dimension d) {
+  switch (d) {
+    case Dimension::length: return "42mm";
+    case Dimension::time: return "1.2ns";
+    case Dimension::resistance: return "50ohm";
+    case Dimension::capacitance: return "4pF";
+    case Dimension::inductance: return "10nH";
+    case Dimension::conductance: return "1mS";
+    case Dimension::voltage: return "3.3V";
+    case Dimension::frequency: return "100MHz";
+    case Dimension::speed: return "0.66c";
+    case Dimension::inductance_per_length: return "250nH/m";
+    case Dimension::capacitance_per_length: return "100pF/m";
+    case Dimension::resistance_per_length: return "2ohm/m";
+    case Dimension::conductance_per_length: return "10uS/m";
+    case Dimension::ratio: return "2%";
+    case Dimension::count: return "12";
+  }
+  return "";
+}
+
+std::variant<double, UnitError> read_quantity(std::string_view token, Dimension expected) {
+  const Split split = split_number(token);
+  if (split.number.empty())
+    return UnitError{fmt::format("expected {} such as {}, found '{}'", dimension_noun(expected),
+                                 dimension_example(expected), token)};
+  const double number = to_double(split.number);
+  const UnitTable& table = units_of(expected);
+  if (auto hit = table.find(split.unit); hit != table.end()) {
+    const double value = number * hit->second;
+    if (expected == Dimension::count && (value != std::floor(value) || std::abs(value) > 1e9))
+      return UnitError{fmt::format("expected a whole number, found '{}'", token)};
+    return value;
+  }
+  if (expected == Dimension::count)
+    return UnitError{fmt::format("expected a whole number with no unit, found '{}'", token)};
+  if (split.unit.empty() || is_prefix_only(split.unit))
+    return UnitError{missing_unit_message(token, split.number, split.unit, expected)};
+  if (starts_with_meg(split.unit))
+    return UnitError{fmt::format("'{}' uses the simulator suffix 'meg', which is not a unit here: "
+                                 "write {}M{} for mega",
+                                 token, split.number, base_unit(expected))};
+  for (Dimension other : kAllDimensions) {
+    if (other == expected || other == Dimension::count || other == Dimension::ratio) continue;
+    if (units_of(other).count(split.unit))
+      return UnitError{fmt::format("expected {}, found {} '{}'", dimension_noun(expected),
+                                   dimension_noun(other), token)};
+  }
+  std::vector<std::string_view> same_letters;
+  for (const auto& [unit, scale] : table) {
+    if (unit.size() == split.unit.size() && edit_distance(unit, split.unit) == 0)
+      same_letters.push_back(unit);
+  }
+  if (same_letters.size() == 1)
+    return UnitError{fmt::format("unknown unit '{}' for {}; did you mean '{}'? (prefixes are "
+                                 "case-sensitive)",
+                                 split.unit, dimension_noun(expected), same_letters.front())};
+  if (same_letters.size() > 1)
+    return UnitError{fmt::format("unknown unit '{}' for {}; did you mean {}? (prefixes are "
+                                 "case-sensitive)",
+                                 split.unit, dimension_noun(expected),
+                                 fmt::format("'{}'", fmt::join(same_letters, "' or '")))};
+  return UnitError{fmt::format("unknown unit '{}' for {}; write for example {}", split.unit,
+                               dimension_noun(expected), dimension_example(expected))};
+}
+
+std::variant<Quantity, UnitError> read_quantity_of(std::string_view token,
+                                                   std::span<const Dimension> allowed) {
+  const Split split = split_number(token);
+  for (Dimension d : allowed) {
+    if (!split.number.empty() && units_of(d).count(split.unit)) {
+      auto read = read_quantity(token, d);
+      if (auto* value = std::get_if<double>(&read)) return Quantity{*value, d};
+      return std::get<UnitError>(read);
+    }
+  }
+  std::vector<std::string> nouns;
+  std::vector<std::string> examples;
+  for (Dimension d : allowed) {
+    nouns.emplace_back(dimension_noun(d));
+    examples.emplace_back(dimension_example(d));
+  }
+  if (!split.number.empty() && (split.unit.empty() || is_prefix_only(split.unit)))
+    return UnitError{fmt::format("'{}' needs a unit: write for example {}", token,
+                                 fmt::join(examples, ", "))};
+  if (!split.number.empty() && starts_with_meg(split.unit))
+    return UnitError{fmt::format("'{}' uses the simulator suffix 'meg', which is not a unit here: "
+                                 "write {}Mohm for mega",
+                                 token, split.number)};
+  return UnitError{fmt::format("expected {}, found '{}'; write for example {}",
+                               fmt::join(nouns, " or "), token, fmt::join(examples, ", "))};
+}
+
+}  // namespace rungs::syntax
