@@ -126,6 +126,36 @@ struct token_generator {
 inline constexpr token_generator<ast::Word> as_word{};
 inline constexpr token_generator<ast::Value> as_value{};
 
+/// Parses `subject` into a copy of the attribute and keeps it only on success, so a failed
+/// alternative leaves nothing behind (X3 of Boost 1.74 has no hold[] of its own).
+template <typename Subject>
+struct hold_directive : x3::unary_parser<Subject, hold_directive<Subject>> {
+  using base_type = x3::unary_parser<Subject, hold_directive<Subject>>;
+  static bool const is_pass_through_unary = true;
+  constexpr explicit hold_directive(Subject const& inner) : base_type(inner) {}
+
+  template <typename Iterator, typename Context, typename RContext, typename Attribute>
+  bool parse(Iterator& first, Iterator const& last, Context const& context, RContext& rcontext,
+             Attribute& attribute) const {
+    Attribute copy(attribute);
+    Iterator i = first;
+    if (!this->subject.parse(i, last, context, rcontext, copy)) return false;
+    attribute = std::move(copy);
+    first = i;
+    return true;
+  }
+};
+
+struct hold_generator {
+  template <typename Subject>
+  constexpr hold_directive<typename x3::extension::as_parser<Subject>::value_type> operator[](
+      Subject const& subject) const {
+    return hold_directive<typename x3::extension::as_parser<Subject>::value_type>(
+        x3::as_parser(subject));
+  }
+};
+inline constexpr hold_generator hold{};
+
 /// A keyword matched whole: `line` is not the start of `liner`.
 inline auto keyword(const char* word) {
   return x3::lexeme[x3::lit(word) >> !(letter_ | digit)];
@@ -228,8 +258,10 @@ inline const auto drive_statement_def = keyword("drive") > node > waveform > *pa
 inline const auto load_term_def = quantity | ('(' > load_network > close_bracket);
 inline const auto series_network_def = x3::attr(ast::NetworkKind::series) >> series_terms;
 inline const auto parallel_network_def = x3::attr(ast::NetworkKind::parallel) >> parallel_terms;
-inline const auto load_network_def =
-    open_network | short_network | series_network | parallel_network | single_network;
+// hold[]: a series attempt that fails after its first term must not leave that term behind
+// in the attribute the parallel attempt then fills.
+inline const auto load_network_def = open_network | short_network | hold[series_network] |
+                                     hold[parallel_network] | single_network;
 inline const auto load_statement_def = keyword("load") > node > load_network > *param;
 inline const auto statement_def = design_statement[actions::assign] | set_statement[actions::assign] |
                                   line_statement[actions::assign] | drive_statement[actions::assign] |

@@ -62,6 +62,9 @@ class ParamReader {
       if (!spec) {
         d.error(p.key.span, fmt::format("unknown parameter '{}' for {}{}", p.key.text, owner,
                                         syntax::did_you_mean(p.key.text, keys)));
+        if (std::string near = syntax::nearest(p.key.text, keys); !near.empty())
+          suggested_.insert(std::move(near));
+        failed_ = true;
         continue;
       }
       auto [it, fresh] = given_.emplace(p.key.text, &p);
@@ -81,6 +84,9 @@ class ParamReader {
   }
 
   bool has(std::string_view key) const { return given_.count(key) > 0; }
+  /// True when an unknown key was reported with this one as its "did you mean", so that its
+  /// absence need not be reported again.
+  bool was_suggested(std::string_view key) const { return suggested_.count(key) > 0; }
   std::optional<double> get(std::string_view key) const {
     auto it = values_.find(key);
     return it == values_.end() ? std::nullopt : std::optional<double>(it->second);
@@ -109,6 +115,7 @@ class ParamReader {
   std::map<std::string, const ast::Param*, std::less<>> given_;
   ParamValues values_;
   std::optional<Shape> shape_;
+  std::set<std::string, std::less<>> suggested_;
   bool failed_ = false;
 };
 
@@ -199,7 +206,8 @@ void Resolver::line(const ast::LineStatement& s) {
   bool complete = !params.failed();
   for (const ParamSpec& p : model->params) {
     if (p.required && !params.has(p.key)) {
-      d.error(s.model.span, fmt::format("{} needs {}= ({})", model->name, p.key, p.meaning));
+      if (!params.was_suggested(p.key))
+        d.error(s.model.span, fmt::format("{} needs {}= ({})", model->name, p.key, p.meaning));
       complete = false;
     }
   }

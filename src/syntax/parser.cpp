@@ -99,6 +99,15 @@ std::string expectation_message(const SourceFile& file, std::size_t line_begin,
 
 }  // namespace
 
+const std::set<std::string>& grammar_productions() {
+  static const std::set<std::string> names = [] {
+    std::set<std::string> all = grammar::production_names();
+    all.insert("description");
+    return all;
+  }();
+  return names;
+}
+
 ast::Description parse_description(Diagnostics& diagnostics, std::set<std::string>* productions) {
   const SourceFile& file = diagnostics.file();
   const char* const base = file.text.data();

@@ -15,6 +15,10 @@ namespace rungs::syntax {
 ast::Description parse_description(Diagnostics& diagnostics,
                                    std::set<std::string>* productions = nullptr);
 
+/// The names of the productions that the X3 rules implement (grammar/rules.h), plus
+/// "description", which is the line loop of parse_description itself.
+const std::set<std::string>& grammar_productions();
+
 /// The statement keywords, for "did you mean".
 inline constexpr std::string_view kStatementKeywords[] = {"design", "set", "line", "drive",
                                                           "load"};

@@ -1,0 +1,82 @@
+// The command line as a user meets it: subcommands, stdin, exit codes, the lines report.
+#include <catch2/catch.hpp>
+
+#include "run_command.h"
+
+using rungs::testing::run_rungs;
+
+namespace {
+// Air coax with b/a = 2: L' = 138.63 nH/m, C' = 80.26 pF/m, Z0 = 41.56 ohm
+// (REFERENCES.md, calc, from Pozar 4th ed. Table 2.1).
+const char* kAirCoax =
+    "line air a -> b coax inner=1mm outer=2mm er=1 length=2m\n"
+    "load b 42ohm\n"
+    "drive a step 0V to 1V rise=1ns source=42ohm\n";
+}  // namespace
+
+TEST_CASE("rungs lines prints a table a person reads") {
+  auto r = run_rungs("lines -", kAirCoax);
+  CHECK(r.exit_code == 0);
+  CHECK(r.err.empty());
+  CHECK(r.out.find("design design: 1 line\n") == 0);
+  CHECK(r.out.find("Z0/ohm") != std::string::npos);
+  // Z0 41.56 ohm, velocity factor 1, L' 138.6 nH/m, C' 80.26 pF/m, delay 2 m / c = 6.671 ns.
+  CHECK(r.out.find("air   coax") != std::string::npos);
+  CHECK(r.out.find(" 41.59 ") == std::string::npos);
+  CHECK(r.out.find(" 41.56 ") != std::string::npos);
+  CHECK(r.out.find(" 138.6 ") != std::string::npos);
+  CHECK(r.out.find(" 80.26 ") != std::string::npos);
+  CHECK(r.out.find(" 6.671 ") != std::string::npos);
+}
+
+TEST_CASE("rungs lines --json gives SI values under fixed keys") {
+  auto r = run_rungs("lines --json -", kAirCoax);
+  CHECK(r.exit_code == 0);
+  for (const char* key : {"\"version\": 1", "\"name\": \"air\"", "\"model\": \"coax\"",
+                          "\"z0\": 41.56005", "\"delay\": 6.6712819", "\"velocity\": 299792458",
+                          "\"l\": 1.386294", "\"c\": 8.02607", "\"r\": 0", "\"g\": 0", "\"eps_eff\": ",
+                          "\"length\": 2"}) {
+    INFO(key);
+    CHECK(r.out.find(key) != std::string::npos);
+  }
+}
+
+TEST_CASE("an ideal line given by its delay has no per-length figures") {
+  auto r = run_rungs("lines --json -",
+                     "line t a -> b ideal z0=50ohm delay=1ns\nload b 50ohm\n"
+                     "drive a step 0V to 1V rise=100ps\n");
+  CHECK(r.exit_code == 0);
+  CHECK(r.out.find("\"l\": null") != std::string::npos);
+  CHECK(r.out.find("\"length\": null") != std::string::npos);
+  CHECK(r.out.find("\"delay\": 1e-09") != std::string::npos);
+}
+
+TEST_CASE("exit codes: 2 for bad input, 3 for an unreadable file, 0 for help") {
+  auto bad = run_rungs("lines -", "line a -> b coax\n");
+  CHECK(bad.exit_code == 2);
+  CHECK(bad.out.empty());
+  CHECK(bad.err.find("<stdin>:1:8: error:") == 0);
+  CHECK(bad.err.find("<stdin>: 1 error; nothing written") != std::string::npos);
+
+  auto missing = run_rungs("lines /nonexistent/x.rungs");
+  CHECK(missing.exit_code == 3);
+  CHECK(missing.err == "rungs: cannot read '/nonexistent/x.rungs': No such file or directory\n");
+
+  CHECK(run_rungs("").exit_code == 2);
+  CHECK(run_rungs("lines").exit_code == 2);
+  CHECK(run_rungs("frobnicate x").exit_code == 2);
+  auto help = run_rungs("--help");
+  CHECK(help.exit_code == 0);
+  CHECK(help.out.find("lines") != std::string::npos);
+  auto version = run_rungs("--version");
+  CHECK(version.exit_code == 0);
+  CHECK(version.out.find("rungs 0.1.0") == 0);
+}
+
+TEST_CASE("warnings go to stderr and do not fail the command") {
+  auto r = run_rungs("lines -", "line t a -> b ideal z0=50ohm delay=1ns\n"
+                                 "drive a step 0V to 1V rise=100ps\n");
+  CHECK(r.exit_code == 0);
+  CHECK(r.err.find("<stdin>:1:13: warning: the far end of line 't' (node 'b') connects to "
+                   "nothing else; it is treated as open") == 0);
+}
