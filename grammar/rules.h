@@ -192,6 +192,7 @@ x3::rule<struct line_name_id, ast::Word> const line_name = "a line name";
 x3::rule<struct setting_name_id, ast::Word> const setting_name =
     "a setting name (rise, tolerance, shape or window)";
 x3::rule<struct model_name_id, ast::Word> const model_name = "a model name such as coax";
+x3::rule<struct level_id, ast::Value> const level = "a voltage such as 0V";
 x3::rule<struct arrow_id> const arrow = "'->' between the two ends";
 x3::rule<struct to_id> const to = "'to' between the two levels";
 x3::rule<struct close_id> const close_bracket = "')'";
@@ -220,7 +221,8 @@ inline const auto number_def = x3::lexeme[-x3::char_("+-") >>
                                           -(x3::char_("eE") >> -x3::char_("+-") >> +digit)];
 inline const auto unit_def = x3::lexeme[unit_start >> *(unit_start | digit)];
 inline const auto quantity_def = as_value[x3::lexeme[number >> -unit]];
-inline const auto value_word_def = as_value[name_chars];
+// A word followed by '=' is the next parameter, not this one's value.
+inline const auto value_word_def = as_value[name_chars] >> !x3::lit('=');
 inline const auto value_def = quantity | value_word;
 inline const auto node_def = name | as_word[x3::lexeme[x3::lit('0') >> !(letter_ | digit)]];
 inline const auto param_def = name >> '=' > value;
@@ -230,6 +232,7 @@ inline const auto comment_def = x3::lexeme['#' >> *(x3::char_ - x3::eol)];
 inline const auto line_name_def = name;
 inline const auto setting_name_def = name;
 inline const auto model_name_def = name;
+inline const auto level_def = quantity;
 inline const auto arrow_def = x3::lit("->");
 inline const auto to_def = keyword("to");
 inline const auto close_bracket_def = x3::lit(')');
@@ -248,11 +251,11 @@ inline const auto set_statement_def = keyword("set") > setting_name > value;
 inline const auto line_statement_def =
     keyword("line") > line_name > node > arrow > node > model_name > *param;
 inline const auto step_waveform_def =
-    x3::attr(ast::WaveKind::step) >> keyword("step") > value > to > value;
+    x3::attr(ast::WaveKind::step) >> keyword("step") > level > to > level;
 inline const auto pulse_waveform_def =
-    x3::attr(ast::WaveKind::pulse) >> keyword("pulse") > value > to > value;
+    x3::attr(ast::WaveKind::pulse) >> keyword("pulse") > level > to > level;
 inline const auto dc_waveform_def =
-    x3::attr(ast::WaveKind::dc) >> keyword("dc") > value >> x3::attr(boost::optional<ast::Value>{});
+    x3::attr(ast::WaveKind::dc) >> keyword("dc") > level >> x3::attr(boost::optional<ast::Value>{});
 inline const auto waveform_def = step_waveform | pulse_waveform | dc_waveform;
 inline const auto drive_statement_def = keyword("drive") > node > waveform > *param;
 inline const auto load_term_def = quantity | ('(' > load_network > close_bracket);
@@ -272,7 +275,7 @@ BOOST_SPIRIT_DEFINE(line_of_text, comment, statement, design_statement, set_stat
                     line_statement, drive_statement, load_statement, waveform, step_waveform,
                     pulse_waveform, dc_waveform, load_network, series_network, parallel_network,
                     load_term, param, value, node, name, quantity, number, unit)
-BOOST_SPIRIT_DEFINE(line_name, setting_name, model_name, arrow, to, close_bracket, end_of_line, series_terms,
+BOOST_SPIRIT_DEFINE(line_name, setting_name, level, model_name, arrow, to, close_bracket, end_of_line, series_terms,
                     parallel_terms, value_word, open_network, short_network, single_network)
 
 }  // namespace rungs::grammar

@@ -88,7 +88,7 @@ TEST_CASE("values a simulator would misread are errors that say what to write") 
         "'1Megohm' uses the simulator suffix 'meg', which is not a unit here: write 1Mohm for mega");
   CHECK(error_of("4pf", Dimension::capacitance) ==
         "unknown unit 'pf' for a capacitance; did you mean 'pF'? (prefixes are case-sensitive)");
-  CHECK(error_of("5ns", Dimension::length) == "expected a length, found a time '5ns'");
+  CHECK(error_of("5ns", Dimension::length) == "expected a length such as 42mm, found a time '5ns'");
   CHECK(error_of("0.66", Dimension::speed) ==
         "'0.66' needs a unit: write 0.66c for a fraction of the speed of light, or a speed in m/s");
   CHECK(error_of("fifty", Dimension::resistance) ==

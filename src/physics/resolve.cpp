@@ -91,6 +91,11 @@ class ParamReader {
     auto it = values_.find(key);
     return it == values_.end() ? std::nullopt : std::optional<double>(it->second);
   }
+  /// The value of a parameter as written ("1ns"), for messages.
+  std::string text_of(std::string_view key) const {
+    auto it = given_.find(key);
+    return it == given_.end() ? std::string() : it->second->value.text;
+  }
   /// The span of a parameter's value, or `fallback` when it was not written.
   Span span_of(std::string_view key, Span fallback) const {
     auto it = given_.find(key);
@@ -259,10 +264,10 @@ void Resolver::line(const ast::LineStatement& s) {
       const double implied = *length / *delay;
       if (std::abs(implied - line.velocity) > 1e-3 * line.velocity) {
         d.error(params.span_of("delay", s.name.span),
-                fmt::format("length={:.6g}m and delay={:.6g}s imply {:.4g}c, but this {} line "
+                fmt::format("length={} and delay={} imply {:.4g}c, but this {} line "
                             "carries {:.4g}c; give only one of length= and delay=",
-                            *length, *delay, implied / kSpeedOfLight, model->name,
-                            line.velocity / kSpeedOfLight));
+                            params.text_of("length"), params.text_of("delay"),
+                            implied / kSpeedOfLight, model->name, line.velocity / kSpeedOfLight));
         return;
       }
     }
@@ -282,7 +287,8 @@ void Resolver::line(const ast::LineStatement& s) {
     line.velocity = length ? *length / *delay : 0.0;
     if (length && line.velocity > kSpeedOfLight * (1 + 1e-9)) {
       d.error(params.span_of("delay", s.name.span),
-              fmt::format("length={:.6g}m in delay={:.6g}s is faster than light", *length, *delay));
+              fmt::format("length={} in delay={} is faster than light", params.text_of("length"),
+                          params.text_of("delay")));
       return;
     }
   }
@@ -333,7 +339,11 @@ void Resolver::drive(const ast::DriveStatement& s) {
   if (!low || !high) return;
   drive.low = *low;
   drive.high = *high;
-  if (drive.high == drive.low)
+  if (drive.kind == WaveKind::dc && drive.high == 0.0)
+    d.error(s.waveform.low.span, fmt::format("a dc drive of {} has no swing; give a level other "
+                                             "than 0V",
+                                             s.waveform.low.text));
+  else if (drive.high == drive.low)
     d.error(s.waveform.span, "the drive has no swing; its two levels are equal");
 
   params.require_positive("rise", s.node.span, "rise");
@@ -437,6 +447,7 @@ bool is_ground(std::string_view node) {
 }
 
 Circuit resolve(const syntax::ast::Description& description, Diagnostics& diagnostics) {
+  const bool had_syntax_errors = diagnostics.has_errors();
   Resolver r{diagnostics, {}, {}, {}, {}};
   r.circuit.name = file_stem(diagnostics.file().name);
   // Settings first: a drive may rely on `set rise` written below it.
@@ -449,7 +460,9 @@ Circuit resolve(const syntax::ast::Description& description, Diagnostics& diagno
     if (auto* drive = std::get_if<ast::DriveStatement>(&s)) r.drive(*drive);
     if (auto* load = std::get_if<ast::LoadStatement>(&s)) r.load(*load);
   }
-  check_topology(r.connections, diagnostics);
+  // After a syntax error some statements are missing, and what would connect to them looks
+  // unconnected: check connectivity only on a file that parsed whole.
+  check_topology(r.connections, diagnostics, /*check_reach=*/!had_syntax_errors);
   return std::move(r.circuit);
 }
 

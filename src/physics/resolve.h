@@ -14,7 +14,9 @@ Circuit resolve(const syntax::ast::Description& description, syntax::Diagnostics
 /// Checks how lines, drives and loads connect: names unique (also once case is folded, as
 /// simulators fold it), one drive a node, drives and loads on nodes that a line reaches, no
 /// line end on ground; a line end that touches nothing else is a warning (treated as open).
-void check_topology(const Circuit& circuit, syntax::Diagnostics& diagnostics);
+/// With `check_reach` false, only names are checked, not what reaches what.
+void check_topology(const Circuit& circuit, syntax::Diagnostics& diagnostics,
+                    bool check_reach = true);
 
 /// True for the ground node as written: "0" or "gnd" in any case.
 bool is_ground(std::string_view node);

@@ -56,7 +56,7 @@ class NameBook {
 
 }  // namespace
 
-void check_topology(const Circuit& circuit, Diagnostics& d) {
+void check_topology(const Circuit& circuit, Diagnostics& d, bool check_reach) {
   NameBook line_names("line", d);
   for (const Line& line : circuit.lines) line_names.add(line.name, line.span);
 
@@ -74,11 +74,11 @@ void check_topology(const Circuit& circuit, Diagnostics& d) {
         continue;
       }
       const std::string key = folded(*end);
-      auto [it, fresh] = node_spelling.emplace(key, std::make_pair(*end, line.span));
+      auto [it, fresh] = node_spelling.emplace(key, std::make_pair(*end, end_span));
       if (!fresh && it->second.first != *end)
-        d.error(end_span, fmt::format("node '{}' differs from node '{}' (line at {}) only in "
-                                       "case; simulators fold case, so write one spelling",
-                                       *end, it->second.first, where(d, it->second.second)));
+        d.error(end_span, fmt::format("node '{}' differs from node '{}' (at {}) only in case; "
+                                      "simulators fold case, so write one spelling",
+                                      *end, it->second.first, where(d, it->second.second)));
       if (fresh) line_nodes.push_back(it->second.first);
       ++line_ends_at[*end];
     }
@@ -93,7 +93,7 @@ void check_topology(const Circuit& circuit, Diagnostics& d) {
       d.error(span, fmt::format("a {} cannot sit on ground; put it on a line end", what));
       return false;
     }
-    if (line_ends_at.count(node)) return true;
+    if (line_ends_at.count(node) || !check_reach) return true;
     const std::string near = syntax::nearest(node, line_nodes);
     d.error(span, fmt::format("{} on node '{}', which no line reaches{}", what, node,
                               near.empty() ? "" : fmt::format("; did you mean '{}'?", near)));
@@ -117,7 +117,7 @@ void check_topology(const Circuit& circuit, Diagnostics& d) {
                                      load.node, where(d, it->second)));
   }
 
-  for (const Line& line : circuit.lines) {
+  for (const Line& line : check_reach ? circuit.lines : std::vector<Line>{}) {
     for (const std::string* end : {&line.near, &line.far}) {
       if (is_ground(*end) || line_ends_at[*end] > 1 || drive_at.count(*end) || load_at.count(*end))
         continue;

@@ -49,12 +49,39 @@ Span first_token(const SourceFile& file, std::size_t line_begin) {
   return token_at(file.text, i);
 }
 
+/// The token that ends just before `at` (blanks skipped), on the same line.
+std::string_view token_before(const SourceFile& file, std::size_t at) {
+  std::size_t end = at;
+  while (end > 0 && is_blank(file.text[end - 1])) --end;
+  std::size_t begin = end;
+  while (begin > 0 && !is_blank(file.text[begin - 1]) && !is_line_end(file.text[begin - 1]))
+    --begin;
+  return std::string_view(file.text).substr(begin, end - begin);
+}
+
+bool is_digit(char c) { return c >= '0' && c <= '9'; }
+
 /// The message for a line whose statement parsed but was followed by something else.
-std::string leftover_message(std::string_view keyword, std::string_view found_text,
+std::string leftover_message(const SourceFile& file, Span token, std::string_view keyword,
                              const std::string& found) {
-  if (keyword == "load" && (found_text == "+" || found_text == "||"))
+  const std::string_view found_text = file.slice(token);
+  const std::string_view before = token_before(file, token.begin);
+  if (keyword == "load" && (found_text == "+" || found_text == "||")) {
+    const Span next = token_at(file.text, token.end);
+    if (next.begin == next.end || file.text[next.begin] == '#')
+      return fmt::format("expected a value such as 50ohm, 4pF or 10nH after '{}', found the end "
+                         "of the line",
+                         found_text);
     return "'+' and '||' cannot be mixed without brackets; write for example "
            "(50ohm + 1nF) || 10kohm";
+  }
+  if (is_name(found_text) && !before.empty() && is_digit(before.back())) {
+    const std::string_view number = before.substr(before.find('=') + 1);
+    return fmt::format("a unit follows its number with no blank between them: write {}{}",
+                       number, found_text);
+  }
+  if (keyword == "drive" && found_text == "to")
+    return "a dc drive takes one level; for a change between two levels write step LOW to HIGH";
   if (keyword == "load" && !found_text.empty() && !is_name(found_text) && found_text != "#")
     return fmt::format("expected '+' (series) or '||' (parallel) between load values, found {}",
                        found);
@@ -73,6 +100,13 @@ std::string expectation_message(const SourceFile& file, std::size_t line_begin,
   const std::string_view keyword = file.slice(keyword_token);
   const bool at_line_start = token.begin == keyword_token.begin;
 
+  if (!found_text.empty() && static_cast<unsigned char>(found_text[0]) >= 0x80)
+    return fmt::format("names use ASCII letters, digits and _ only, found {}", found);
+  if (which == grammar::value.name) {
+    const std::string_view before = token_before(file, token.begin);
+    if (!before.empty() && before.back() == '=')
+      return fmt::format("expected a value right after '{}', found {}", before, found);
+  }
   if (which == grammar::end_of_line.name) {
     if (at_line_start) {
       if (is_name(found_text))
@@ -80,7 +114,7 @@ std::string expectation_message(const SourceFile& file, std::size_t line_begin,
       return fmt::format("expected a statement (design, set, line, drive or load), found {}",
                          found);
     }
-    return leftover_message(keyword, found_text, found);
+    return leftover_message(file, token, keyword, found);
   }
   if (which == grammar::node.name && keyword == "line" && found_text == "->")
     return "expected a line name before its ends: line NAME NEAR -> FAR MODEL key=value...";
@@ -95,6 +129,14 @@ std::string expectation_message(const SourceFile& file, std::size_t line_begin,
       return fmt::format("expected a load, found {}; did you mean '{}'?", found, near);
   }
   return fmt::format("expected {}, found {}", which, found);
+}
+
+/// The start of the line after the one that holds `at` (LF, CRLF or a lone CR ends a line).
+const char* next_line(const char* at, const char* end) {
+  at = std::find_if(at, end, [](char c) { return is_line_end(c); });
+  if (at == end) return at;
+  if (*at == '\r' && at + 1 != end && at[1] == '\n') return at + 2;
+  return at + 1;
 }
 
 }  // namespace
@@ -128,12 +170,10 @@ ast::Description parse_description(Diagnostics& diagnostics, std::set<std::strin
       const Span token = token_at(file.text, static_cast<std::size_t>(failure.where() - base));
       diagnostics.error(token, expectation_message(file, static_cast<std::size_t>(line_begin - base),
                                                    failure.which(), token));
-      at = std::find(failure.where(), end, '\n');
-      if (at != end) ++at;
+      at = next_line(failure.where(), end);
     }
     if (at == line_begin) {  // defensive: never loop on input the grammar does not consume
-      at = std::find(at, end, '\n');
-      if (at != end) ++at;
+      at = next_line(at, end);
     }
   }
   if (productions) {

@@ -7,6 +7,11 @@ namespace rungs::syntax {
 
 namespace {
 bool is_continuation_byte(char c) { return (static_cast<unsigned char>(c) & 0xC0) == 0x80; }
+
+/// A line ends at LF, or at a CR that no LF follows (old Mac files); CRLF counts once.
+bool breaks_line(std::string_view text, std::size_t i) {
+  return text[i] == '\n' || (text[i] == '\r' && (i + 1 == text.size() || text[i + 1] != '\n'));
+}
 }  // namespace
 
 Location SourceFile::locate(std::size_t offset) const {
@@ -14,7 +19,7 @@ Location SourceFile::locate(std::size_t offset) const {
   Location where;
   std::size_t line_start = 0;
   for (std::size_t i = 0; i < offset; ++i) {
-    if (text[i] == '\n') {
+    if (breaks_line(text, i)) {
       ++where.line;
       line_start = i + 1;
     }
@@ -28,10 +33,10 @@ Location SourceFile::locate(std::size_t offset) const {
 std::string_view SourceFile::line_of(std::size_t offset) const {
   std::string_view all(text);
   offset = std::min(offset, all.size());
-  std::size_t newline_before = all.substr(0, offset).rfind('\n');
-  std::size_t begin = newline_before == std::string_view::npos ? 0 : newline_before + 1;
-  std::size_t end = std::min(all.find('\n', offset), all.size());
-  if (end > begin && all[end - 1] == '\r') --end;
+  std::size_t begin = offset;
+  while (begin > 0 && !breaks_line(all, begin - 1)) --begin;
+  std::size_t end = offset;
+  while (end < all.size() && all[end] != '\n' && all[end] != '\r') ++end;
   return all.substr(begin, end - begin);
 }
 

@@ -5,6 +5,7 @@
 #include <charconv>
 #include <cmath>
 #include <map>
+#include <optional>
 #include <vector>
 
 #include <fmt/format.h>
@@ -178,10 +179,12 @@ Split split_number(std::string_view token) {
   return {token.substr(0, i), token.substr(i)};
 }
 
-double to_double(std::string_view number) {
+/// The number's value, or empty when it is out of the range of a double.
+std::optional<double> to_double(std::string_view number) {
   if (!number.empty() && number.front() == '+') number.remove_prefix(1);
   double value = 0.0;
-  std::from_chars(number.data(), number.data() + number.size(), value);
+  const auto result = std::from_chars(number.data(), number.data() + number.size(), value);
+  if (result.ec != std::errc()) return std::nullopt;
   return value;
 }
 
@@ -207,6 +210,10 @@ std::string missing_unit_message(std::string_view token, std::string_view number
     return fmt::format("'{}' needs a unit: write {}{} for {}", token, number, usual_unit(d),
                        dimension_noun(d));
   }
+  if (unit == "M" && d == Dimension::length)
+    return fmt::format("'{}' has a prefix but no unit, and a simulator would read M as milli: "
+                       "write {}m for metres or {}mm for millimetres",
+                       token, number, number);
   if (unit == "M")
     return fmt::format("'{}' has a prefix but no unit, and a simulator would read M as milli: "
                        "write {}M{} for mega or {}m{} for milli",
@@ -264,12 +271,15 @@ std::variant<double, UnitError> read_quantity(std::string_view token, Dimension 
   if (split.number.empty())
     return UnitError{fmt::format("expected {} such as {}, found '{}'", dimension_noun(expected),
                                  dimension_example(expected), token)};
-  const double number = to_double(split.number);
+  const std::optional<double> number = to_double(split.number);
+  if (!number) return UnitError{fmt::format("'{}' is out of range", token)};
   const UnitTable& table = units_of(expected);
   if (auto hit = table.find(split.unit); hit != table.end()) {
-    const double value = number * hit->second;
-    if (expected == Dimension::count && (value != std::floor(value) || std::abs(value) > 1e9))
+    const double value = *number * hit->second;
+    if (expected == Dimension::count && value != std::floor(value))
       return UnitError{fmt::format("expected a whole number, found '{}'", token)};
+    if (expected == Dimension::count && std::abs(value) > 1e9)
+      return UnitError{fmt::format("'{}' is too large", token)};
     return value;
   }
   if (expected == Dimension::count)
@@ -283,7 +293,8 @@ std::variant<double, UnitError> read_quantity(std::string_view token, Dimension 
   for (Dimension other : kAllDimensions) {
     if (other == expected || other == Dimension::count || other == Dimension::ratio) continue;
     if (units_of(other).count(split.unit))
-      return UnitError{fmt::format("expected {}, found {} '{}'", dimension_noun(expected),
+      return UnitError{fmt::format("expected {} such as {}, found {} '{}'",
+                                   dimension_noun(expected), dimension_example(expected),
                                    dimension_noun(other), token)};
   }
   std::vector<std::string_view> same_letters;
@@ -312,6 +323,14 @@ std::variant<Quantity, UnitError> read_quantity_of(std::string_view token,
       auto read = read_quantity(token, d);
       if (auto* value = std::get_if<double>(&read)) return Quantity{*value, d};
       return std::get<UnitError>(read);
+    }
+  }
+  // A slip of case in one of the allowed units gets that unit's own "did you mean".
+  for (Dimension d : allowed) {
+    for (const auto& [unit, scale] : units_of(d)) {
+      if (!split.number.empty() && !unit.empty() && unit.size() == split.unit.size() &&
+          edit_distance(unit, split.unit) == 0)
+        return std::get<UnitError>(read_quantity(token, d));
     }
   }
   std::vector<std::string> nouns;
