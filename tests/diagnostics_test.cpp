@@ -361,7 +361,7 @@ TEST_CASE("a negative length", "[models]") {
   CHECK(diagnose("line a x -> y twin wire=0.8mm spacing=6mm er=1 length=-10m\n"
                  "load x open\n"
                  "load y open\n") ==
-        "bad.rungs:1:55: error: length must be greater than zero\n"
+        "bad.rungs:1:55: error: length= must be greater than zero\n"
         "line a x -> y twin wire=0.8mm spacing=6mm er=1 length=-10m\n"
         "                                                      ^~~~\n");
 }
@@ -370,7 +370,7 @@ TEST_CASE("a zero length", "[models]") {
   CHECK(diagnose("line a x -> y twin wire=0.8mm spacing=6mm er=1 length=0m\n"
                  "load x open\n"
                  "load y open\n") ==
-        "bad.rungs:1:55: error: length must be greater than zero\n"
+        "bad.rungs:1:55: error: length= must be greater than zero\n"
         "line a x -> y twin wire=0.8mm spacing=6mm er=1 length=0m\n"
         "                                                      ^~\n");
 }
@@ -379,7 +379,7 @@ TEST_CASE("a negative delay", "[models]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=-1ns\n"
                  "load x open\n"
                  "load y open\n") ==
-        "bad.rungs:1:36: error: delay must be greater than zero\n"
+        "bad.rungs:1:36: error: delay= must be greater than zero\n"
         "line a x -> y ideal z0=50ohm delay=-1ns\n"
         "                                   ^~~~\n");
 }
@@ -662,7 +662,7 @@ TEST_CASE("a negative start time", "[drive]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=1ns\n"
                  "load y open\n"
                  "drive x step 0V to 1V rise=1ns at=-1ns\n") ==
-        "bad.rungs:3:35: error: at cannot be negative\n"
+        "bad.rungs:3:35: error: at= cannot be negative\n"
         "drive x step 0V to 1V rise=1ns at=-1ns\n"
         "                                  ^~~~\n");
 }
@@ -671,7 +671,7 @@ TEST_CASE("a zero rise time", "[drive]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=1ns\n"
                  "load y open\n"
                  "drive x step 0V to 1V rise=0ns\n") ==
-        "bad.rungs:3:28: error: rise must be greater than zero\n"
+        "bad.rungs:3:28: error: rise= must be greater than zero\n"
         "drive x step 0V to 1V rise=0ns\n"
         "                           ^~~\n");
 }
@@ -680,7 +680,7 @@ TEST_CASE("a negative source resistance", "[drive]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=1ns\n"
                  "load y open\n"
                  "drive x step 0V to 1V rise=1ns source=-5ohm\n") ==
-        "bad.rungs:3:39: error: source cannot be negative\n"
+        "bad.rungs:3:39: error: source= cannot be negative\n"
         "drive x step 0V to 1V rise=1ns source=-5ohm\n"
         "                                      ^~~~~\n");
 }

@@ -31,7 +31,7 @@ void check_positive(const ParamValues& p, std::initializer_list<std::string_view
   for (std::string_view key : keys) {
     auto it = p.find(key);
     if (it != p.end() && !(it->second > 0.0))
-      problems.push_back(error(std::string(key), fmt::format("{} must be greater than zero", key)));
+      problems.push_back(error(std::string(key), fmt::format("{}= must be greater than zero", key)));
   }
 }
 void check_er(const ParamValues& p, std::vector<ModelProblem>& problems) {

@@ -91,6 +91,11 @@ class ParamReader {
     auto it = values_.find(key);
     return it == values_.end() ? std::nullopt : std::optional<double>(it->second);
   }
+  /// The parameter's value token, or null when it was not written.
+  const ast::Value* value_of(std::string_view key) const {
+    auto it = given_.find(key);
+    return it == given_.end() ? nullptr : &it->second->value;
+  }
   /// The value of a parameter as written ("1ns"), for messages.
   std::string text_of(std::string_view key) const {
     auto it = given_.find(key);
@@ -108,11 +113,11 @@ class ParamReader {
   /// Reports an error unless `value` (if given) is positive.
   void require_positive(std::string_view key, Span fallback, std::string_view what) const {
     if (auto v = get(key); v && !(*v > 0.0))
-      d_.error(span_of(key, fallback), fmt::format("{} must be greater than zero", what));
+      d_.error(span_of(key, fallback), fmt::format("{}= must be greater than zero", what));
   }
   void require_not_negative(std::string_view key, Span fallback, std::string_view what) const {
     if (auto v = get(key); v && *v < 0.0)
-      d_.error(span_of(key, fallback), fmt::format("{} cannot be negative", what));
+      d_.error(span_of(key, fallback), fmt::format("{}= cannot be negative", what));
   }
 
  private:
@@ -124,8 +129,14 @@ class ParamReader {
   bool failed_ = false;
 };
 
-void check_tolerance(std::optional<double> tolerance, Span span, Diagnostics& d) {
-  if (tolerance && !(*tolerance > 0.0 && *tolerance < 1.0))
+void check_tolerance(std::optional<double> tolerance, const ast::Value* written, Diagnostics& d) {
+  if (!tolerance || (*tolerance > 0.0 && *tolerance < 1.0)) return;
+  const Span span = written->span;
+  if (written->text.back() != '%' && *tolerance >= 1.0 && *tolerance < 100.0)
+    d.error(span, fmt::format("the tolerance is a fraction of the swing between 0 and 100 %; "
+                              "for {:g} percent write {:g}%",
+                              *tolerance, *tolerance));
+  else
     d.error(span, "the tolerance is a fraction of the swing between 0 and 100 %; write for "
                   "example 2%");
 }
@@ -168,7 +179,7 @@ struct Resolver {
       if (auto shape = read_shape(s.value, d)) st.shape = *shape;
     } else if (key == "tolerance") {
       if (auto v = read(s.value, Dimension::ratio, d)) {
-        check_tolerance(v, s.value.span, d);
+        check_tolerance(v, &s.value, d);
         st.tolerance = *v;
       }
     } else if (auto v = read(s.value, Dimension::time, d)) {
@@ -227,7 +238,7 @@ void Resolver::line(const ast::LineStatement& s) {
   }
   line.shape = params.shape();
   line.tolerance = params.get("tolerance");
-  check_tolerance(line.tolerance, params.span_of("tolerance", s.name.span), d);
+  check_tolerance(line.tolerance, params.value_of("tolerance"), d);
   params.require_positive("rise", s.name.span, "rise");
   line.rise = params.get("rise");
   line.charged = params.get("charged");

@@ -339,7 +339,13 @@ std::variant<Quantity, UnitError> read_quantity_of(std::string_view token,
     nouns.emplace_back(dimension_noun(d));
     examples.emplace_back(dimension_example(d));
   }
-  if (!split.number.empty() && (split.unit.empty() || is_prefix_only(split.unit)))
+  if (!split.number.empty() && is_prefix_only(split.unit)) {
+    std::vector<std::string> spelled;
+    for (Dimension d : allowed) spelled.push_back(fmt::format("{}{}", token, base_unit(d)));
+    return UnitError{fmt::format("'{}' has a prefix but no unit: write {}", token,
+                                 fmt::join(spelled, " or "))};
+  }
+  if (!split.number.empty() && split.unit.empty())
     return UnitError{fmt::format("'{}' needs a unit: write for example {}", token,
                                  fmt::join(examples, ", "))};
   if (!split.number.empty() && starts_with_meg(split.unit))
