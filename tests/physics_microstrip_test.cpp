@@ -34,6 +34,31 @@ TEST_CASE("zero-thickness microstrip on er = 4.3 matches Hammerstad-Jensen") {
   }
 }
 
+TEST_CASE("Hammerstad-Jensen formulas hold their digits across the range") {
+  struct Row {
+    double er, u, t, z0, eps_eff;
+  };
+  // Hammerstad & Jensen, IEEE MTT-S Digest 1980, pp. 407-409: their closed forms, with the
+  // thickness correction for t > 0 (t normalised to h), recomputed for this test in 30-digit
+  // arithmetic (calc; these rows are not in REFERENCES.md). They pin the transcription of
+  // the constants at narrow, wide and thick strips, where the four-figure rows above cannot
+  // see a slip; relative 1e-6.
+  for (const Row row : {Row{4.3, 0.05, 0.0, 180.956799265, 2.82791788782},
+                        Row{4.3, 10.0, 0.0, 14.9266338667, 3.78001105374},
+                        Row{4.3, 100.0, 0.0, 1.76311939708, 4.19493555447},
+                        Row{10.0, 0.05, 0.0, 124.62491024, 5.96220479955},
+                        Row{10.0, 10.0, 0.0, 9.92111875678, 8.55648776738},
+                        Row{10.0, 100.0, 0.0, 1.15902445382, 9.70741378011},
+                        Row{4.5, 1.8, 0.14, 49.3020713596, 3.27132040539},
+                        Row{4.3, 0.2, 0.05, 121.399609666, 2.74977647096},
+                        Row{10.0, 10.0, 0.02, 9.90235493994, 8.5333264919}}) {
+    CAPTURE(row.er, row.u, row.t);
+    const auto m = microstrip_figures(row.u * kHeight, kHeight, row.t * kHeight, row.er);
+    CHECK_THAT(m.z0, WithinRel(row.z0, 1e-6));
+    CHECK_THAT(m.eps_eff, WithinRel(row.eps_eff, 1e-6));
+  }
+}
+
 TEST_CASE("Pozar's 50-ohm microstrip analyses back to 50 ohm") {
   // Pozar's design formulas (4th ed., eqs. 3.195-3.197) and his worked example (2nd/3rd ed.,
   // Example 3.7): 50 ohm on d = 1.27 mm, er = 2.20 gives W/d = 3.081, W = 3.91 mm,

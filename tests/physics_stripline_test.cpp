@@ -36,6 +36,25 @@ TEST_CASE("zero-thickness stripline matches Cohn's exact values") {
   }
 }
 
+TEST_CASE("stripline formulas hold their digits for wide and thick strips") {
+  struct Row {
+    double w_over_b, t_over_b, sqrt_er_z0;
+  };
+  // Cohn's exact form (IRE Trans. MTT-2, 1954; memory for the citation) times Wheeler's
+  // thickness ratio (IEEE Trans. MTT-26, 1978), recomputed for this test in 30-digit
+  // arithmetic (calc; these rows are not in REFERENCES.md). They pin wide strips, where the
+  // elliptic ratio is far from 1, and Wheeler's constants, which a ratio-only check cannot
+  // see; relative 1e-6.
+  const double b = 2e-3;
+  for (const Row row :
+       {Row{2.0, 0.0, 38.5793225723}, Row{3.0, 0.0, 27.3685428869}, Row{0.5, 0.1, 83.0306861461},
+        Row{0.1, 0.01, 183.651390225}, Row{2.0, 0.2, 29.492145447}}) {
+    CAPTURE(row.w_over_b, row.t_over_b);
+    CHECK_THAT(stripline_z0(row.w_over_b * b, b, row.t_over_b * b, 1.0),
+               WithinRel(row.sqrt_er_z0, 1e-6));
+  }
+}
+
 TEST_CASE("Pozar's 50-ohm stripline analyses back to 50 ohm") {
   // Pozar 4th ed., Example 3.5: 50 ohm, b = 3.2 mm, er = 2.20 gives W = 2.66 mm (book).
   // Pozar's design formula is a fit to the exact solution; allow 1 %.

@@ -30,8 +30,8 @@ double agm_from_one(double b) {
 
 double elliptic_k(double k) {
   if (!(k >= 0.0 && k < 1.0)) throw std::domain_error("elliptic K needs a modulus in [0, 1)");
-  // k' from (1 - k)(1 + k) rather than 1 - k^2: 1 - k is exact near k = 1, so k' keeps
-  // its digits where K grows like ln(4/k') (A&S 17.3.26).
+  // (1 - k)(1 + k) rather than 1 - k^2 spares the rounding of k^2; the larger loss near
+  // k = 1 is in k itself, which is why elliptic_k_ratio takes k' from the caller.
   const double k_complement = std::sqrt((1.0 - k) * (1.0 + k));
   return kPi / (2.0 * agm_from_one(k_complement));
 }

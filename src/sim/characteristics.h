@@ -29,8 +29,9 @@ double drive_voltage(const physics::Drive& drive, const physics::Settings& setti
 /// everywhere with zero current. A drive applies its waveform from t = 0, so a step with a
 /// `low` other than 0 V jumps to `low` at t = 0. A load with `at` is an ideal switch, open
 /// before and closed from the first sample at or after `at`; it is at rest when it closes.
-/// A node that no drive or load touches is an open end of the lines reaching it. A drive
-/// with zero source resistance, and a load that is a short, force the node's voltage.
+/// A node that no drive or load touches is an open end of the lines reaching it; a line end
+/// on ground is a shorted end. A drive with zero source resistance, and a load that is a
+/// short, force the node's voltage.
 ///
 /// Throws std::invalid_argument for a line with r or g non-zero (not lossless), a line
 /// without a positive z0 and delay, a line delay shorter than dt, dt not positive and finite,

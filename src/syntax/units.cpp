@@ -188,6 +188,32 @@ std::optional<double> to_double(std::string_view number) {
   return value;
 }
 
+/// number * scale, rounded once: for a scale that is a power of ten the exponent is shifted
+/// in the text and read again, so 0.1ns is the double nearest 1e-10, not 0.1 * 1e-9.
+double scaled(std::string_view number, double value, double scale) {
+  static constexpr std::pair<double, int> kPowers[] = {{1e-15, -15}, {1e-12, -12}, {1e-9, -9},
+                                                       {1e-6, -6},   {1e-3, -3},   {1e-2, -2},
+                                                       {1e3, 3},     {1e6, 6},     {1e9, 9},
+                                                       {1e12, 12}};
+  for (const auto& [power, exponent] : kPowers) {
+    if (scale != power) continue;
+    if (!number.empty() && number.front() == '+') number.remove_prefix(1);
+    const std::size_t e = number.find_first_of("eE");
+    int shift = exponent;
+    if (e != std::string_view::npos) {
+      int written = 0;
+      std::from_chars(number.data() + e + 1 + (number[e + 1] == '+'), number.data() + number.size(),
+                      written);
+      shift += written;
+    }
+    const std::string text = fmt::format("{}e{}", number.substr(0, e), shift);
+    double exact = value * scale;
+    std::from_chars(text.data(), text.data() + text.size(), exact);
+    return exact;
+  }
+  return value * scale;
+}
+
 bool is_prefix_only(std::string_view unit) {
   for (const Prefix& p : kPrefixes) {
     if (!p.symbol.empty() && unit == p.symbol) return true;
@@ -275,7 +301,7 @@ std::variant<double, UnitError> read_quantity(std::string_view token, Dimension 
   if (!number) return UnitError{fmt::format("'{}' is out of range", token)};
   const UnitTable& table = units_of(expected);
   if (auto hit = table.find(split.unit); hit != table.end()) {
-    const double value = *number * hit->second;
+    const double value = scaled(split.number, *number, hit->second);
     if (expected == Dimension::count && value != std::floor(value))
       return UnitError{fmt::format("expected a whole number, found '{}'", token)};
     if (expected == Dimension::count && std::abs(value) > 1e9)

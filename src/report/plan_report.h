@@ -1,0 +1,33 @@
+// The plan report: how each line became a ladder, how good the ladder is, and cautions.
+#pragma once
+#include <string>
+#include <vector>
+
+#include "physics/circuit.h"
+#include "plan/plan.h"
+#include "sim/peak.h"
+
+namespace rungs::report {
+
+/// Cautions a person must see: voltages above the source level, dc sources above 50 V,
+/// lines charged above 50 V. Each defers to local codes and licensed practice.
+std::vector<std::string> cautions(const physics::Circuit& circuit, const sim::PeakEstimate& peak);
+
+/// The report for people: one row per line (model, Z0, delay, shape, sections, per-section
+/// L and C, cutoff, knee, their ratio, predicted error, the common rule's sections and its
+/// predicted error, elements), then totals, the peak and the cautions.
+std::string plan_text(const physics::Circuit& circuit, const plan::Plan& plan,
+                      const sim::PeakEstimate& peak, std::string_view source_name);
+
+/// The report for tools, SI units:
+/// `{"version": 1, "design", "window", "time_step", "lines": [{"name", "model", "z0",
+/// "delay", "shape", "sections", "section_l", "section_c", "elements", "cutoff",
+/// "bandwidth", "predicted_error", "rule_sections", "rule_predicted_error"}], "elements",
+/// "peak_ratio", "peak_voltage", "cautions"}`; peak values are null when not computed.
+std::string plan_json(const physics::Circuit& circuit, const plan::Plan& plan,
+                      const sim::PeakEstimate& peak);
+
+/// One line for stderr after emitting.
+std::string plan_summary(const physics::Circuit& circuit, const plan::Plan& plan);
+
+}  // namespace rungs::report

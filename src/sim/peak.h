@@ -1,0 +1,25 @@
+// The highest voltage the line ends can reach, from the exact lossless reference.
+#pragma once
+#include <string>
+
+#include "physics/circuit.h"
+#include "plan/plan.h"
+
+namespace rungs::sim {
+
+/// How far the line ends swing, measured on the lossless circuit (R' and G' set to zero,
+/// which can only raise the peaks of a passive circuit's first arrivals).
+struct PeakEstimate {
+  bool computed = false;   // false when the circuit is too large to simulate quickly
+  double ratio = 0.0;      // largest |v(t) - v(0)| at a line end over the largest swing
+  double voltage = 0.0;    // V, largest |v(t)| at any line end
+  std::string node;        // where `voltage` occurs
+  double source_level = 0.0;  // V, largest |level| of any drive or charged line
+};
+
+/// Simulates `circuit` by the method of characteristics over the plan's window. The swing
+/// is the largest of the drives' (high - low) and the charged lines' voltages. Skipped
+/// (computed = false) above about 2e8 node-samples.
+PeakEstimate estimate_peak(const physics::Circuit& circuit, const plan::Plan& plan);
+
+}  // namespace rungs::sim
