@@ -12,14 +12,16 @@ namespace rungs::sim {
 struct PeakEstimate {
   bool computed = false;   // false when the circuit is too large to simulate quickly
   double ratio = 0.0;      // largest |v(t) - v(0)| at a line end over the largest swing
-  double voltage = 0.0;    // V, largest |v(t)| at any line end
+  double voltage = 0.0;    // V, an upper bound of |v(t)| at any line end
   std::string node;        // where `voltage` occurs
   double source_level = 0.0;  // V, largest |level| of any drive or charged line
 };
 
-/// Simulates `circuit` by the method of characteristics over the plan's window. The swing
-/// is the largest of the drives' (high - low) and the charged lines' voltages. Skipped
-/// (computed = false) above about 2e8 node-samples.
+/// Simulates `circuit` by the method of characteristics over the plan's window, with each
+/// drive's change applied to a circuit at rest (superposition on the DC starting point).
+/// The swing is the largest of the drives' (high - low) and the charged lines' voltages.
+/// Skipped (computed = false) when the dense reference would take more than about a second,
+/// or for a circuit it does not cover.
 PeakEstimate estimate_peak(const physics::Circuit& circuit, const plan::Plan& plan);
 
 }  // namespace rungs::sim
