@@ -124,6 +124,17 @@ Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
   }
   for (const physics::Load& l : circuit.loads) last_event = std::max(last_event, l.at.value_or(0.0));
 
+  // A charged line makes the deck start from its initial conditions (uic), not from a DC
+  // operating point: everything else starts at rest, so a drive must start at 0 V too.
+  const bool charged = std::any_of(circuit.lines.begin(), circuit.lines.end(),
+                                   [](const Line& l) { return l.charged.has_value(); });
+  for (const physics::Drive& d : circuit.drives) {
+    if (charged && d.low != 0.0)
+      diagnostics.error(d.span, fmt::format("this design has a charged line, so it starts from "
+                                            "rest; drive '{}' must start at 0V, not {:g}V",
+                                            d.node, d.low));
+  }
+
   std::map<int, double> part_delay;  // component -> sum of its line delays
   double shortest_section = std::numeric_limits<double>::infinity();
   for (const Line& line : circuit.lines) {
