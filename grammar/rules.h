@@ -114,17 +114,21 @@ struct token_directive : x3::unary_parser<Subject, token_directive<Token, Subjec
   }
 };
 
-template <typename Token>
-struct token_generator {
+/// `directive[subject]` for a directive template of one parser parameter.
+template <template <typename> class Directive>
+struct directive_generator {
   template <typename Subject>
-  constexpr token_directive<Token, typename x3::extension::as_parser<Subject>::value_type>
-  operator[](Subject const& subject) const {
-    return token_directive<Token, typename x3::extension::as_parser<Subject>::value_type>(
-        x3::as_parser(subject));
+  constexpr auto operator[](Subject const& subject) const {
+    using parser = typename x3::extension::as_parser<Subject>::value_type;
+    return Directive<parser>(x3::as_parser(subject));
   }
 };
-inline constexpr token_generator<ast::Word> as_word{};
-inline constexpr token_generator<ast::Value> as_value{};
+template <typename Subject>
+using word_directive = token_directive<ast::Word, Subject>;
+template <typename Subject>
+using value_directive = token_directive<ast::Value, Subject>;
+inline constexpr directive_generator<word_directive> as_word{};
+inline constexpr directive_generator<value_directive> as_value{};
 
 /// Parses `subject` into a copy of the attribute and keeps it only on success, so a failed
 /// alternative leaves nothing behind (X3 of Boost 1.74 has no hold[] of its own).
@@ -146,15 +150,7 @@ struct hold_directive : x3::unary_parser<Subject, hold_directive<Subject>> {
   }
 };
 
-struct hold_generator {
-  template <typename Subject>
-  constexpr hold_directive<typename x3::extension::as_parser<Subject>::value_type> operator[](
-      Subject const& subject) const {
-    return hold_directive<typename x3::extension::as_parser<Subject>::value_type>(
-        x3::as_parser(subject));
-  }
-};
-inline constexpr hold_generator hold{};
+inline constexpr directive_generator<hold_directive> hold{};
 
 /// A keyword matched whole: `line` is not the start of `liner`.
 inline auto keyword(const char* word) {

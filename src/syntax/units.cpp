@@ -105,49 +105,37 @@ const UnitTable& units_of(Dimension d) {
   return tables.at(d);
 }
 
-/// The usual unit of a dimension, for "write 50ohm".
-std::string_view usual_unit(Dimension d) {
-  switch (d) {
-    case Dimension::length: return "mm";
-    case Dimension::time: return "ns";
-    case Dimension::resistance: return "ohm";
-    case Dimension::capacitance: return "pF";
-    case Dimension::inductance: return "nH";
-    case Dimension::conductance: return "mS";
-    case Dimension::voltage: return "V";
-    case Dimension::frequency: return "MHz";
-    case Dimension::speed: return "c";
-    case Dimension::inductance_per_length: return "nH/m";
-    case Dimension::capacitance_per_length: return "pF/m";
-    case Dimension::resistance_per_length: return "ohm/m";
-    case Dimension::conductance_per_length: return "uS/m";
-    case Dimension::ratio: return "%";
-    case Dimension::count: return "";
-  }
-  return "";
+
+
+/// What messages say of each dimension: its noun, a well-written example, the unit to
+/// suggest after a bare number, and the unit without prefix (for "write 1Mohm").
+struct DimensionText {
+  std::string_view noun, example, usual_unit, base_unit;
+};
+
+const DimensionText& text_of(Dimension d) {
+  static const std::map<Dimension, DimensionText> table = {
+      {Dimension::length, {"a length", "42mm", "mm", "m"}},
+      {Dimension::time, {"a time", "1.2ns", "ns", "s"}},
+      {Dimension::resistance, {"a resistance", "50ohm", "ohm", "ohm"}},
+      {Dimension::capacitance, {"a capacitance", "4pF", "pF", "F"}},
+      {Dimension::inductance, {"an inductance", "10nH", "nH", "H"}},
+      {Dimension::conductance, {"a conductance", "1mS", "mS", "S"}},
+      {Dimension::voltage, {"a voltage", "3.3V", "V", "V"}},
+      {Dimension::frequency, {"a frequency", "100MHz", "MHz", "Hz"}},
+      {Dimension::speed, {"a speed", "0.66c", "c", "m/s"}},
+      {Dimension::inductance_per_length, {"an inductance per length", "250nH/m", "nH/m", "H/m"}},
+      {Dimension::capacitance_per_length, {"a capacitance per length", "100pF/m", "pF/m", "F/m"}},
+      {Dimension::resistance_per_length, {"a resistance per length", "2ohm/m", "ohm/m", "ohm/m"}},
+      {Dimension::conductance_per_length, {"a conductance per length", "10uS/m", "uS/m", "S/m"}},
+      {Dimension::ratio, {"a plain number or a percentage", "2%", "%", ""}},
+      {Dimension::count, {"a whole number", "12", "", ""}},
+  };
+  return table.at(d);
 }
 
-/// The unit without its prefix, for "write 1Mohm".
-std::string_view base_unit(Dimension d) {
-  switch (d) {
-    case Dimension::length: return "m";
-    case Dimension::time: return "s";
-    case Dimension::resistance: return "ohm";
-    case Dimension::capacitance: return "F";
-    case Dimension::inductance: return "H";
-    case Dimension::conductance: return "S";
-    case Dimension::voltage: return "V";
-    case Dimension::frequency: return "Hz";
-    case Dimension::speed: return "m/s";
-    case Dimension::inductance_per_length: return "H/m";
-    case Dimension::capacitance_per_length: return "F/m";
-    case Dimension::resistance_per_length: return "ohm/m";
-    case Dimension::conductance_per_length: return "S/m";
-    case Dimension::ratio:
-    case Dimension::count: return "";
-  }
-  return "";
-}
+std::string_view usual_unit(Dimension d) { return text_of(d).usual_unit; }
+std::string_view base_unit(Dimension d) { return text_of(d).base_unit; }
 
 struct Split {
   std::string_view number;
@@ -250,47 +238,11 @@ std::string missing_unit_message(std::string_view token, std::string_view number
 
 }  // namespace
 
-std::string_view dimension_noun(Dimension d) {
-  switch (d) {
-    case Dimension::length: return "a length";
-    case Dimension::time: return "a time";
-    case Dimension::resistance: return "a resistance";
-    case Dimension::capacitance: return "a capacitance";
-    case Dimension::inductance: return "an inductance";
-    case Dimension::conductance: return "a conductance";
-    case Dimension::voltage: return "a voltage";
-    case Dimension::frequency: return "a frequency";
-    case Dimension::speed: return "a speed";
-    case Dimension::inductance_per_length: return "an inductance per length";
-    case Dimension::capacitance_per_length: return "a capacitance per length";
-    case Dimension::resistance_per_length: return "a resistance per length";
-    case Dimension::conductance_per_length: return "a conductance per length";
-    case Dimension::ratio: return "a plain number or a percentage";
-    case Dimension::count: return "a whole number";
-  }
-  return "a value";
-}
 
-std::string_view dimension_example(Dimension d) {
-  switch (d) {
-    case Dimension::length: return "42mm";
-    case Dimension::time: return "1.2ns";
-    case Dimension::resistance: return "50ohm";
-    case Dimension::capacitance: return "4pF";
-    case Dimension::inductance: return "10nH";
-    case Dimension::conductance: return "1mS";
-    case Dimension::voltage: return "3.3V";
-    case Dimension::frequency: return "100MHz";
-    case Dimension::speed: return "0.66c";
-    case Dimension::inductance_per_length: return "250nH/m";
-    case Dimension::capacitance_per_length: return "100pF/m";
-    case Dimension::resistance_per_length: return "2ohm/m";
-    case Dimension::conductance_per_length: return "10uS/m";
-    case Dimension::ratio: return "2%";
-    case Dimension::count: return "12";
-  }
-  return "";
-}
+
+std::string_view dimension_noun(Dimension d) { return text_of(d).noun; }
+
+std::string_view dimension_example(Dimension d) { return text_of(d).example; }
 
 std::variant<double, UnitError> read_quantity(std::string_view token, Dimension expected) {
   const Split split = split_number(token);
