@@ -21,7 +21,7 @@ double k_by_series(double k) {
   double coefficient = 1.0;  // (2n)!/(2^(2n) (n!)^2), built term by term
   double power = 1.0;
   double sum = 1.0;
-  for (int n = 1; n < 2000; ++n) {
+  for (int n = 1; n < 5000; ++n) {
     coefficient *= (2.0 * n - 1.0) / (2.0 * n);
     power *= k * k;
     const double term = coefficient * coefficient * power;

@@ -10,7 +10,7 @@
 namespace rungs::physics {
 namespace {
 
-// AGM(1, b) for 0 <= b <= 1 (Abramowitz & Stegun 17.6.1-17.6.2: a' = (a + b)/2,
+// AGM(1, b) for 0 <= b <= 1 (Abramowitz & Stegun 17.6: a' = (a + b)/2,
 // b' = sqrt(a b)). The gap squares at each step, so five or six steps reach full precision
 // for any b not extremely small; the step bound only guards against rounding that makes
 // a and b trade the last bit instead of meeting.

@@ -161,8 +161,10 @@ ModelResult evaluate_stripline(const ParamValues& p) {
   const double ratio = thickness_of(p) / p.at("spacing");
   if (ratio > kStriplineMaxThicknessRatio)
     problems.push_back(warning("thickness", fmt::format("thickness/spacing = {:.3g} is above "
-                                                        "{:g}, beyond the range of Wheeler's "
-                                                        "(1978) thickness correction",
+                                                        "{:g}: a strip this thick is outside "
+                                                        "the thin-strip case that Wheeler's "
+                                                        "(1978) thickness correction was made "
+                                                        "for (common practice)",
                                                         ratio, kStriplineMaxThicknessRatio)));
   return from_per_length(
       stripline_per_length(p.at("width"), p.at("spacing"), thickness_of(p), p.at("er")),

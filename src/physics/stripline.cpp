@@ -10,9 +10,10 @@
 namespace rungs::physics {
 namespace {
 
-// Beyond this x = pi W/2b, k = sech x is below 1e-8, so k^2 is under the rounding of 1 and
-// the leading terms K(k) = pi/2, K(k') = ln(4/k) (A&S 17.3.11, 17.3.26) are exact in double
-// precision; they also hold where cosh x overflows (x > 710, W above about 450 b).
+// Beyond this x = pi W/2b, k = sech x is below 1e-8, so k^2 is under the rounding of 1
+// and the leading terms K(k) = pi/2, K(k') = ln(4/k) (A&S 17.3.11, 17.3.26; numbers
+// recalled) are exact in double precision; they also hold where cosh x overflows (x > 710,
+// W above about 450 b).
 constexpr double kWideStripX = 20.0;
 
 // sqrt(er) Z0 of a zero-thickness strip (Cohn, IRE Trans. MTT-2, 1954).

@@ -15,7 +15,9 @@ double stripline_z0(double width, double spacing, double thickness, double er);
 /// L' = Z0 sqrt(er)/c, C' = sqrt(er)/(Z0 c): a homogeneous dielectric, so eps_eff = er.
 PerLength stripline_per_length(double width, double spacing, double thickness, double er);
 
-/// Wheeler (1978) states his thickness correction for t/b up to this value.
+/// Above this t/b the strip is no longer thin beside the plane spacing, and the thickness
+/// correction is used outside the thin-strip case it was made for (common practice; the
+/// limit is ours, not a figure stated by Wheeler 1978).
 inline constexpr double kStriplineMaxThicknessRatio = 0.25;
 
 }  // namespace rungs::physics
