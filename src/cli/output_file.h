@@ -1,4 +1,4 @@
-// Writing output files atomically, and never over a file rungs did not write.
+// Writing output files atomically, never over a file rungs did not write, and comparing them.
 #pragma once
 #include <functional>
 #include <ostream>
@@ -6,12 +6,46 @@
 
 namespace rungs::cli {
 
-/// Writes `path` by calling `write` on a temporary file beside it, then renaming it over
-/// `path`, so a reader sees the old file or the new one, never half of one. "-" writes to
-/// standard output. When `protect_foreign` is set, an existing file whose first line is not
-/// a rungs deck marker is left alone unless `force`. Returns an error message, or empty.
-std::string write_atomically(const std::string& path,
-                             const std::function<void(std::ostream&)>& write,
+/// Produces a file's content into a stream.
+using ContentWriter = std::function<void(std::ostream&)>;
+
+/// Writes `path` by calling `write` on a temporary file beside it (`.NAME.rungs-PID.tmp`),
+/// flushing it to disk and renaming it over `path`, so a reader, or a build killed at any
+/// moment, sees the old file or the new one, never half of one. "-" writes to standard
+/// output. When `protect_foreign` is set, a foreign file (is_foreign_file) is left alone
+/// unless `force`. Returns an error message, or empty.
+std::string write_atomically(const std::string& path, const ContentWriter& write,
                              bool protect_foreign, bool force);
+
+/// What write_if_changed did.
+struct WriteOutcome {
+  std::string error;     // empty on success
+  bool changed = false;  // the file was replaced (or created)
+};
+
+/// As write_atomically, but when the file already holds exactly the bytes `write` produces,
+/// it is left alone, timestamp included, and the temporary file is removed. The content is
+/// compared while it is produced, so a large file is never held in memory.
+WriteOutcome write_if_changed(const std::string& path, const ContentWriter& write,
+                              bool protect_foreign, bool force);
+
+/// How a file on disk stands against the content `write` produces.
+struct Comparison {
+  bool exists = false;
+  bool same = false;
+  std::string existing_head;  // the first bytes of each (up to `head_bytes`)
+  std::string expected_head;
+};
+
+/// Compares `path` with what `write` produces, writing nothing and keeping little in memory.
+Comparison compare_with_file(const std::string& path, const ContentWriter& write,
+                             std::size_t head_bytes);
+
+/// The first line of `path`, without its line break; empty when it cannot be read.
+std::string read_first_line(const std::string& path);
+
+/// True when `path` exists, is not empty, and does not start with a rungs deck marker: a
+/// file that rungs must not overwrite without --force. (An empty file holds nothing to keep.)
+bool is_foreign_file(const std::string& path);
 
 }  // namespace rungs::cli

@@ -19,7 +19,7 @@ LadderErrorEstimate estimate_ladder_error(double delay, double rise, int section
   const double w = 2.0 * kPi * knee_frequency(rise);
   const double tau = delay / sections;
   const double x = knee_frequency(rise) / section_cutoff(tau);  // = w tau / 2
-  if (x >= 1.0) return {1.0, 1.0};
+  if (x >= 1.0) return {1.0, 0.0};
 
   LadderErrorEstimate e;
   // Phase per section minus the exact w tau; asin keeps it exact near cutoff where the
@@ -38,6 +38,9 @@ LadderErrorEstimate estimate_ladder_error(double delay, double rise, int section
     case physics::Shape::pi: e.impedance = pi_reflection; break;
     case physics::Shape::l: e.impedance = std::max(t_reflection, pi_reflection); break;
   }
+  // Neither part can exceed the whole swing in a way the estimate could claim.
+  e.dispersion = std::min(e.dispersion, 1.0);
+  e.impedance = std::min(e.impedance, 1.0 - e.dispersion);
   return e;
 }
 

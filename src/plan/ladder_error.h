@@ -32,7 +32,7 @@ struct LadderErrorEstimate {
 ///   (Z_i + Z0) where the ladder meets a line-matched end. An L section shows Z_T at one end
 ///   and Z_pi at the other, so it takes the worse.
 /// At or above cutoff (x >= 1) the ladder passes nothing and the estimate is 1 (the whole
-/// swing).
+/// swing); the total never exceeds 1.
 LadderErrorEstimate estimate_ladder_error(double delay, double rise, int sections,
                                           physics::Shape shape);
 

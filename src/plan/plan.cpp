@@ -185,7 +185,7 @@ Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
   plan.window = circuit.settings.window.value_or(last_event + (2.0 * trips + 1.0) * slowest_part);
   // The simulator's step must resolve both the fastest ramp and one section's delay; the
   // factors are measured with ngspice in tests/emit_ngspice_test.cpp.
-  plan.time_step = std::min(shortest_ramp / 40.0, shortest_section / 4.0);
+  plan.time_step = std::min(shortest_ramp / 40.0, shortest_section / 8.0);
   if (!std::isfinite(plan.time_step)) plan.time_step = plan.window / 1000.0;
   return plan;
 }

@@ -41,6 +41,15 @@ std::vector<std::string> cautions(const physics::Circuit& circuit, const sim::Pe
                               "{:.4g} V: reflections push the voltage past the source, so rate "
                               "parts and insulation for the peak",
                               peak.node, peak.voltage, peak.source_level));
+  for (const physics::Load& l : circuit.loads) {
+    if (l.at)
+      out.push_back(fmt::format("the load on {} is switched in at {:.4g} ns through an ideal "
+                                "switch: its edge is instantaneous, so the ladder's error after "
+                                "it is not bounded by the predicted error; check the waveform "
+                                "after the switch against the simulator's ideal line "
+                                "(--with-ideal)",
+                                l.node, *l.at * 1e9));
+  }
   for (const physics::Drive& d : circuit.drives) {
     if (d.kind == physics::WaveKind::dc && std::abs(d.high) > kHighVoltage)
       out.push_back(fmt::format("drive {} is a {:.4g} V dc source: voltages above {:g} V can "

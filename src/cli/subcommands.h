@@ -1,0 +1,36 @@
+// The subcommands that write files, for commands.cpp to call once argv is parsed.
+#pragma once
+#include <string>
+
+namespace rungs::cli {
+
+/// `rungs emit FILE` and its options.
+struct EmitOptions {
+  std::string output = "-";
+  std::string report;
+  std::string report_json;
+  std::string templates;
+  std::string depfile;
+  bool library = false;
+  bool with_ideal = false;
+  bool force = false;
+  bool quiet = false;
+};
+
+/// Writes the netlist of `path` (and the reports and depfile asked for); returns the exit code.
+int emit_command(const std::string& path, const EmitOptions& options);
+
+/// `rungs build` and its options.
+struct BuildOptions {
+  std::string manifest;  // empty: rungs.toml, looked up from the current folder upward
+  unsigned jobs = 0;     // 0: one a core
+  std::string depfile;
+  bool check = false;
+  bool force = false;
+  bool quiet = false;
+};
+
+/// Builds, or with `check` compares, every output of a manifest; returns the exit code.
+int build_command(const BuildOptions& options);
+
+}  // namespace rungs::cli

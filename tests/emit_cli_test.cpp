@@ -1,0 +1,660 @@
+// `rungs emit` as a user meets it: the decks and reports it writes for the examples and for
+// the designs in tests/golden/ (golden files), the same bytes on every run and in a locale
+// with a decimal comma, and how it writes files: standard output, atomic replacement, files
+// it did not write left alone, --library, --with-ideal, --templates, the reports, bad input.
+//
+// Golden files live in tests/golden/: <stem>.cir is the deck and <stem>.report.txt the text
+// report (--report) of examples/<stem>.rungs or tests/golden/<stem>.rungs, emitted from the
+// source folder, so that the deck's header names its source as `examples/<stem>.rungs`;
+// <stem>.<option>.cir is the deck emitted with --<option>. When a change to the emitted
+// text is meant, rewrite them instead of comparing:
+//
+//   RUNGS_UPDATE_GOLDEN=1 ./build/tests/emit_cli_test "[golden]"
+//
+// then read `git diff tests/golden/` as the deck an engineer would run, and commit the new
+// golden files with the change that made them.
+#include <catch2/catch.hpp>
+
+#include <algorithm>
+#include <cstdio>
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <functional>
+#include <locale>
+#include <set>
+#include <sstream>
+#include <string>
+#include <vector>
+
+#include <spawn.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include "emit/deck.h"
+#include "emit/sha256.h"
+#include "emit/spice_number.h"
+#include "emit/templates.h"
+#include "physics/resolve.h"
+#include "plan/plan.h"
+#include "report/plan_report.h"
+#include "run_command.h"
+#include "sim/peak.h"
+#include "syntax/diagnostics.h"
+#include "syntax/parser.h"
+
+extern char** environ;
+
+namespace fs = std::filesystem;
+using rungs::testing::run_rungs;
+
+namespace {
+
+const fs::path kSource = RUNGS_SOURCE_DIR;
+const fs::path kGolden = kSource / "tests" / "golden";
+
+std::string read_file(const fs::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  std::ostringstream text;
+  text << in.rdbuf();
+  return text.str();
+}
+
+void write_file(const fs::path& path, const std::string& text) {
+  std::ofstream(path, std::ios::binary) << text;
+}
+
+/// A fresh folder under the system's temporary folder, removed with everything in it.
+struct TempDir {
+  fs::path path;
+  TempDir() {
+    std::string pattern = (fs::temp_directory_path() / "rungs_emit_cli_XXXXXX").string();
+    REQUIRE(::mkdtemp(pattern.data()) != nullptr);
+    path = pattern;
+  }
+  ~TempDir() {
+    std::error_code ec;
+    fs::remove_all(path, ec);
+  }
+  std::set<std::string> entries() const {
+    std::set<std::string> names;
+    for (const auto& entry : fs::directory_iterator(path)) names.insert(entry.path().filename());
+    return names;
+  }
+};
+
+/// Runs the binary from the source folder, so that sources are named as a user there would.
+struct InSourceFolder {
+  fs::path previous = fs::current_path();
+  InSourceFolder() { fs::current_path(kSource); }
+  ~InSourceFolder() { fs::current_path(previous); }
+};
+
+/// Sets an environment variable for the commands run while it lives.
+struct ScopedEnv {
+  std::string name;
+  ScopedEnv(std::string n, const std::string& value) : name(std::move(n)) {
+    ::setenv(name.c_str(), value.c_str(), 1);
+  }
+  ~ScopedEnv() { ::unsetenv(name.c_str()); }
+};
+
+std::string shell_output(const std::string& command) {
+  std::string out;
+  FILE* pipe = ::popen(command.c_str(), "r");
+  REQUIRE(pipe != nullptr);
+  char buffer[4096];
+  for (std::size_t n; (n = std::fread(buffer, 1, sizeof buffer, pipe)) > 0;) out.append(buffer, n);
+  ::pclose(pipe);
+  return out;
+}
+
+/// Empty when the texts are equal, else where they first differ, line by line.
+std::string first_difference(const std::string& expected, const std::string& actual) {
+  if (expected == actual) return "";
+  std::istringstream a(expected), b(actual);
+  std::string x, y;
+  for (int line = 1;; ++line) {
+    const bool more_a = static_cast<bool>(std::getline(a, x));
+    const bool more_b = static_cast<bool>(std::getline(b, y));
+    if (!more_a && !more_b) return "the texts differ only in their last line break";
+    if (!more_a || !more_b || x != y)
+      return "line " + std::to_string(line) + ": golden '" + (more_a ? x : "<end>") +
+             "', emitted '" + (more_b ? y : "<end>") + "'";
+  }
+}
+
+bool updating_golden() {
+  const char* flag = std::getenv("RUNGS_UPDATE_GOLDEN");
+  return flag != nullptr && std::string(flag) == "1";
+}
+
+/// Compares `actual` with the golden file `name`, or rewrites it with RUNGS_UPDATE_GOLDEN=1.
+void check_golden(const std::string& name, const std::string& actual) {
+  const fs::path path = kGolden / name;
+  INFO("golden file tests/golden/" << name);
+  if (updating_golden()) {
+    write_file(path, actual);
+    WARN("rewrote tests/golden/" << name);
+    CHECK(read_file(path) == actual);
+    return;
+  }
+  INFO("missing? regenerate with RUNGS_UPDATE_GOLDEN=1 (see the top of emit_cli_test.cpp)");
+  REQUIRE(fs::exists(path));
+  CHECK(first_difference(read_file(path), actual) == "");
+}
+
+/// One deck held by a golden file: which description, with which option.
+struct GoldenCase {
+  std::string input;   // relative to the source folder
+  std::string option;  // "", "library" or "with-ideal"
+  std::string stem() const { return fs::path(input).stem().string(); }
+  std::string deck_golden() const {
+    std::string suffix = option;
+    std::replace(suffix.begin(), suffix.end(), '-', '_');
+    return stem() + (option.empty() ? "" : "." + suffix) + ".cir";
+  }
+  std::string report_golden() const { return option.empty() ? stem() + ".report.txt" : ""; }
+  std::string flags() const { return option.empty() ? "" : " --" + option; }
+};
+
+std::vector<std::string> rungs_files(const fs::path& folder, const std::string& prefix) {
+  std::vector<std::string> files;
+  for (const auto& entry : fs::directory_iterator(folder))
+    if (entry.path().extension() == ".rungs")
+      files.push_back(prefix + entry.path().filename().string());
+  std::sort(files.begin(), files.end());
+  return files;
+}
+
+/// Every example and golden design plainly, and two designs with each option.
+std::vector<GoldenCase> golden_cases() {
+  std::vector<GoldenCase> cases;
+  for (const std::string& input : rungs_files(kSource / "examples", "examples/"))
+    cases.push_back({input, ""});
+  for (const std::string& input : rungs_files(kGolden, "tests/golden/")) cases.push_back({input, ""});
+  cases.push_back({"tests/golden/lossy_shapes.rungs", "library"});
+  cases.push_back({"tests/golden/lossy_shapes.rungs", "with-ideal"});
+  cases.push_back({"tests/golden/name_clashes.rungs", "with-ideal"});
+  return cases;
+}
+
+/// What `rungs emit` writes for a case, run from the source folder: the deck and the report.
+struct Emitted {
+  int exit_code = -1;
+  std::string err;
+  std::string deck;
+  std::string report;
+};
+
+Emitted emit_case(const GoldenCase& c) {
+  TempDir dir;
+  const fs::path report = dir.path / "report.txt";
+  InSourceFolder here;
+  const auto r = run_rungs("emit " + c.input + c.flags() + " -o - -q --report " + report.string());
+  return {r.exit_code, r.err, r.out, read_file(report)};
+}
+
+TEST_CASE("emitted decks and reports equal the golden files", "[golden]") {
+  for (const GoldenCase& c : golden_cases()) {
+    INFO("rungs emit " << c.input << c.flags());
+    const Emitted e = emit_case(c);
+    CHECK(e.exit_code == 0);
+    CHECK(e.err.empty());  // neither warnings nor errors in any golden design
+    check_golden(c.deck_golden(), e.deck);
+    if (!c.report_golden().empty()) check_golden(c.report_golden(), e.report);
+  }
+}
+
+TEST_CASE("every golden file belongs to a case, and every example has one", "[golden]") {
+  std::set<std::string> expected;
+  for (const GoldenCase& c : golden_cases()) {
+    CHECK(expected.insert(c.deck_golden()).second);  // no two cases share a golden file
+    if (!c.report_golden().empty()) CHECK(expected.insert(c.report_golden()).second);
+  }
+  std::set<std::string> found;
+  for (const auto& entry : fs::directory_iterator(kGolden))
+    if (entry.path().extension() != ".rungs") found.insert(entry.path().filename().string());
+  CHECK(found == expected);
+  CHECK(rungs_files(kSource / "examples", "").size() >= 5);
+  CHECK(rungs_files(kGolden, "").size() >= 3);
+}
+
+// ---- the same bytes -----------------------------------------------------------------------
+
+TEST_CASE("two runs write the same bytes, to a file as to standard output", "[determinism]") {
+  for (const GoldenCase& c : golden_cases()) {
+    INFO("rungs emit " << c.input << c.flags());
+    TempDir dir;
+    InSourceFolder here;
+    std::vector<std::string> decks;
+    for (int run = 0; run < 2; ++run) {
+      const fs::path out = dir.path / ("run" + std::to_string(run) + ".cir");
+      REQUIRE(run_rungs("emit " + c.input + c.flags() + " -q -o " + out.string()).exit_code == 0);
+      decks.push_back(read_file(out));
+    }
+    const auto to_stdout = run_rungs("emit " + c.input + c.flags() + " -q");
+    CHECK(to_stdout.exit_code == 0);
+    CHECK(decks[0].size() > 500);
+    CHECK(first_difference(decks[0], decks[1]) == "");
+    CHECK(first_difference(decks[0], to_stdout.out) == "");
+  }
+}
+
+bool has_decimal_comma(const std::string& name) {
+  try {
+    return std::use_facet<std::numpunct<char>>(std::locale(name)).decimal_point() == ',';
+  } catch (const std::runtime_error&) {
+    return false;
+  }
+}
+
+/// A locale that writes one half as "0,5": one the system has, else de_DE.UTF-8 compiled by
+/// localedef from the system's locale sources (Debian's `locales` package) into a cache
+/// folder that LOCPATH then names, for this process and the commands it runs. Empty when
+/// neither is possible (no network is needed either way).
+std::string comma_locale() {
+  for (const char* name : {"de_DE.UTF-8", "de_DE.utf8", "fr_FR.UTF-8", "fr_FR.utf8", "nl_NL.UTF-8"})
+    if (has_decimal_comma(name)) return name;
+  const std::string name = "de_DE.UTF-8";
+  const fs::path cache = fs::temp_directory_path() / "rungs-test-locales";
+  std::error_code ec;
+  if (!fs::exists(cache / name / "LC_NUMERIC")) {
+    // Built beside the cache and renamed into place, so that tests running at the same time
+    // never see half a locale.
+    const fs::path scratch = cache.string() + "." + std::to_string(::getpid());
+    fs::create_directories(scratch, ec);
+    const std::string command =
+        "localedef -i de_DE -f UTF-8 '" + (scratch / name).string() + "' >/dev/null 2>&1";
+    [[maybe_unused]] const int status = std::system(command.c_str());  // 1 means warnings
+    if (fs::exists(scratch / name / "LC_NUMERIC")) fs::rename(scratch, cache, ec);
+    fs::remove_all(scratch, ec);
+  }
+  if (!fs::exists(cache / name / "LC_NUMERIC")) return "";
+  ::setenv("LOCPATH", cache.c_str(), 1);
+  if (has_decimal_comma(name)) return name;
+  ::unsetenv("LOCPATH");
+  return "";
+}
+
+TEST_CASE("the binary writes the same bytes under a decimal-comma locale", "[determinism]") {
+  const std::string locale = comma_locale();
+  if (locale.empty()) {
+    WARN("no decimal-comma locale here and none could be built (install Debian's `locales`); "
+         "only the default locale is checked");
+  } else {
+    // The locale is really in force for a program that asks for it (coreutils printf does).
+    const ScopedEnv all("LC_ALL", locale);
+    CHECK(shell_output("/usr/bin/printf '%.1f' 0.5") == "0,5");
+  }
+  const ScopedEnv all("LC_ALL", locale.empty() ? "C" : locale);
+  for (const GoldenCase& c : golden_cases()) {
+    INFO("LC_ALL=" << locale << " rungs emit " << c.input << c.flags());
+    const Emitted e = emit_case(c);
+    CHECK(e.exit_code == 0);
+    CHECK(first_difference(read_file(kGolden / c.deck_golden()), e.deck) == "");
+    if (!c.report_golden().empty())
+      CHECK(first_difference(read_file(kGolden / c.report_golden()), e.report) == "");
+  }
+}
+
+/// Grouping by threes with '.' and a decimal comma: the German convention, for a process
+/// that has no such locale installed.
+struct CommaPunctuation : std::numpunct<char> {
+  char do_decimal_point() const override { return ','; }
+  char do_thousands_sep() const override { return '.'; }
+  std::string do_grouping() const override { return "\3"; }
+};
+
+/// The deck and report of a case made in this process, the way `rungs emit` makes them.
+Emitted emit_in_process(const GoldenCase& c) {
+  namespace syntax = rungs::syntax;
+  const syntax::SourceFile file{c.input, read_file(kSource / c.input)};
+  syntax::Diagnostics diagnostics(file);
+  const auto circuit =
+      rungs::physics::resolve(syntax::parse_description(diagnostics), diagnostics);
+  REQUIRE_FALSE(diagnostics.has_errors());
+  const auto plan = rungs::plan::plan_circuit(circuit, diagnostics);
+  REQUIRE_FALSE(diagnostics.has_errors());
+  std::ostringstream deck;
+  const std::string error = rungs::emit::write_deck(
+      deck, circuit, plan, {file.name, rungs::emit::sha256_hex(file.text)},
+      rungs::emit::builtin_templates(), {c.option == "library", c.option == "with-ideal"});
+  REQUIRE(error.empty());
+  const auto peak = rungs::sim::estimate_peak(circuit, plan);
+  return {0, "", deck.str(), rungs::report::plan_text(circuit, plan, peak, file.name)};
+}
+
+TEST_CASE("the stages write the same bytes with a decimal-comma global locale",
+          "[determinism]") {
+  const std::string name = comma_locale();
+  // A named locale also sets the C library's locale (printf, strtod); the fallback changes
+  // the C++ streams only.
+  const std::locale comma = name.empty()
+                                ? std::locale(std::locale::classic(), new CommaPunctuation)
+                                : std::locale(name);
+  if (name.empty()) WARN("no decimal-comma locale here: the C++ streams' locale only");
+  struct Restore {
+    std::locale previous;
+    ~Restore() { std::locale::global(previous); }
+  } restore{std::locale::global(comma)};
+
+  std::ostringstream probe;
+  probe << 0.5 << ' ' << 1000000;
+  CHECK(probe.str().substr(0, 3) == "0,5");
+  if (!name.empty()) {
+    char buffer[16];
+    std::snprintf(buffer, sizeof buffer, "%.1f", 0.5);
+    CHECK(std::string(buffer) == "0,5");
+  }
+  CHECK(rungs::emit::spice_number(2.5e-10) == "2.5e-10");
+  for (const GoldenCase& c : golden_cases()) {
+    INFO("in process: " << c.input << c.flags());
+    const Emitted e = emit_in_process(c);
+    CHECK(first_difference(read_file(kGolden / c.deck_golden()), e.deck) == "");
+    if (!c.report_golden().empty())
+      CHECK(first_difference(read_file(kGolden / c.report_golden()), e.report) == "");
+  }
+}
+
+// ---- writing files ------------------------------------------------------------------------
+
+const char* kSmall =
+    "line feed a -> b ideal z0=50ohm delay=1ns\n"
+    "drive a step 0V to 1V rise=200ps source=50ohm\n"
+    "load b 50ohm\n";
+const char* kOther =
+    "line other p -> q ideal z0=75ohm delay=2ns\n"
+    "drive p step 0V to 5V rise=1ns source=75ohm\n"
+    "load q 75ohm\n";
+
+std::string deck_of(const std::string& text, const std::string& flags = "") {
+  const auto r = run_rungs("emit - -q" + flags, text);
+  REQUIRE(r.exit_code == 0);
+  return r.out;
+}
+
+TEST_CASE("a deck goes to standard output with -o - or no -o", "[cli]") {
+  const auto dash = run_rungs("emit - -o -", kSmall);
+  CHECK(dash.exit_code == 0);
+  CHECK(dash.out.rfind(std::string("* generated by rungs ") + RUNGS_VERSION +
+                           " from <stdin>; do not edit, regenerate it\n",
+                       0) == 0);
+  CHECK(dash.out.size() > 6);
+  CHECK(dash.out.substr(dash.out.size() - 5) == ".end\n");
+  // The summary goes to standard error, never into the deck.
+  CHECK(dash.err.rfind("rungs: design: 1 line, ", 0) == 0);
+  CHECK(dash.out.find("rungs: design") == std::string::npos);
+  const auto plain = run_rungs("emit -", kSmall);
+  CHECK(plain.exit_code == 0);
+  CHECK(plain.out == dash.out);
+  const auto quiet = run_rungs("emit - -q", kSmall);
+  CHECK(quiet.err.empty());
+  CHECK(quiet.out == dash.out);
+}
+
+TEST_CASE("a deck file is complete and nothing is left beside it", "[cli]") {
+  TempDir dir;
+  const fs::path deck = dir.path / "deck.cir";
+  const auto r = run_rungs("emit - -q -o " + deck.string(), kSmall);
+  CHECK(r.exit_code == 0);
+  CHECK(r.out.empty());
+  CHECK(read_file(deck) == deck_of(kSmall));
+  CHECK(dir.entries() == std::set<std::string>{"deck.cir"});
+}
+
+/// A design of `lines` lines of `sections` sections each, with a drive and a load each.
+std::string many_lines(int lines, int sections) {
+  std::string text = "design many\n";
+  for (int i = 0; i < lines; ++i) {
+    const std::string n = std::to_string(i);
+    text += "line l" + n + " a" + n + " -> b" + n + " ideal z0=50ohm delay=1ns sections=" +
+            std::to_string(sections) + "\ndrive a" + n + " step 0V to 1V rise=100ps source=50ohm\n" +
+            "load b" + n + " 50ohm\n";
+  }
+  return text;
+}
+
+TEST_CASE("while a deck is replaced, a reader sees the old one or the new one whole", "[cli]") {
+  TempDir dir;
+  const fs::path deck = dir.path / "deck.cir";
+  const fs::path input = dir.path / "many.rungs";
+  write_file(input, many_lines(400, 1000));  // 800 400 elements, about 16 MB of deck
+  REQUIRE(run_rungs("emit - -q -o " + deck.string(), kSmall).exit_code == 0);
+  const std::string old_deck = read_file(deck);
+
+  const std::string binary = RUNGS_BINARY, out = deck.string(), in = input.string();
+  std::vector<char*> argv = {const_cast<char*>(binary.c_str()), const_cast<char*>("emit"),
+                             const_cast<char*>(in.c_str()),     const_cast<char*>("-q"),
+                             const_cast<char*>("-o"),           const_cast<char*>(out.c_str()),
+                             nullptr};
+  pid_t pid = 0;
+  REQUIRE(::posix_spawn(&pid, binary.c_str(), nullptr, nullptr, argv.data(), environ) == 0);
+  std::vector<std::string> seen;  // every text read while the writer ran, but the old one
+  int reads = 0, status = 0;
+  while (::waitpid(pid, &status, WNOHANG) == 0) {
+    std::string now = read_file(deck);
+    ++reads;
+    if (now != old_deck && (seen.empty() || seen.back() != now)) seen.push_back(std::move(now));
+  }
+  REQUIRE(WIFEXITED(status));
+  CHECK(WEXITSTATUS(status) == 0);
+  const std::string new_deck = read_file(deck);
+  CHECK(new_deck.size() > 10u * 1000 * 1000);
+  CHECK(new_deck.substr(new_deck.size() - 5) == ".end\n");
+  CHECK(reads > 10);  // the reader really ran beside the writer
+  for (const std::string& text : seen) CHECK(text == new_deck);
+  CHECK(dir.entries() == std::set<std::string>{"deck.cir", "many.rungs"});
+}
+
+TEST_CASE("a file rungs did not write is replaced only with --force", "[cli]") {
+  TempDir dir;
+  const fs::path deck = dir.path / "deck.cir";
+  const std::string own = "* my hand-made deck\nR1 a 0 50\n.end\n";
+  write_file(deck, own);
+  const auto refused = run_rungs("emit - -o " + deck.string(), kSmall);
+  CHECK(refused.exit_code == 2);
+  CHECK(refused.out.empty());
+  CHECK(refused.err == "rungs: '" + deck.string() +
+                           "' exists and was not written by rungs; not overwriting it (use "
+                           "--force to replace it)\n");
+  CHECK(read_file(deck) == own);
+  CHECK(dir.entries() == std::set<std::string>{"deck.cir"});
+
+  const auto forced = run_rungs("emit - -q --force -o " + deck.string(), kSmall);
+  CHECK(forced.exit_code == 0);
+  CHECK(read_file(deck) == deck_of(kSmall));
+  CHECK(dir.entries() == std::set<std::string>{"deck.cir"});
+}
+
+TEST_CASE("a file rungs wrote, by this version or another, is replaced", "[cli]") {
+  TempDir dir;
+  const fs::path deck = dir.path / "deck.cir";
+  REQUIRE(run_rungs("emit - -q -o " + deck.string(), kSmall).exit_code == 0);
+  const auto again = run_rungs("emit - -q -o " + deck.string(), kOther);
+  CHECK(again.exit_code == 0);
+  CHECK(again.err.empty());
+  CHECK(read_file(deck) == deck_of(kOther));
+
+  write_file(deck, "* generated by rungs 0.0.1 from old.rungs; do not edit, regenerate it\n.end\n");
+  CHECK(run_rungs("emit - -q -o " + deck.string(), kSmall).exit_code == 0);
+  CHECK(read_file(deck) == deck_of(kSmall));
+  CHECK(dir.entries() == std::set<std::string>{"deck.cir"});
+}
+
+/// The lines of `deck` outside .subckt ... .ends that are not blank or comments.
+std::vector<std::string> top_level_lines(const std::string& deck) {
+  std::vector<std::string> out;
+  std::istringstream in(deck);
+  bool inside = false;
+  for (std::string line; std::getline(in, line);) {
+    if (line.rfind(".subckt ", 0) == 0) inside = true;
+    if (!inside && !line.empty() && line[0] != '*') out.push_back(line);
+    if (line.rfind(".ends", 0) == 0) inside = false;
+  }
+  return out;
+}
+
+TEST_CASE("a library deck (--library) holds the subcircuits alone", "[cli]") {
+  const std::string text = std::string(kSmall) + "line spur b -> c ideal z0=50ohm delay=300ps\n";
+  const std::string library = deck_of(text, " --library");
+  CHECK(library.find(".subckt line_feed near far ref\n") != std::string::npos);
+  CHECK(library.find(".subckt line_spur near far ref\n") != std::string::npos);
+  CHECK(top_level_lines(library).empty());  // no elements, no .tran, no .save, no .end
+  CHECK(library.find(".tran") == std::string::npos);
+  CHECK(library.find("\n.end\n") == std::string::npos);
+  // The same subcircuits as in the runnable deck, which goes on where the library stops.
+  const std::string deck = deck_of(text);
+  CHECK(deck.rfind(library, 0) == 0);
+  CHECK(top_level_lines(deck).size() > 5);
+}
+
+TEST_CASE("the option --with-ideal adds the simulator's ideal line beside each ladder", "[cli]") {
+  const std::string text = std::string(kSmall) + "line spur b -> c ideal z0=75ohm delay=300ps\n";
+  const std::string deck = deck_of(text, " --with-ideal");
+  std::vector<std::string> ideal;
+  for (const std::string& line : top_level_lines(deck))
+    if (line[0] == 'T') ideal.push_back(line);
+  CHECK(ideal == std::vector<std::string>{"T_feed_ideal a_ideal 0 b_ideal 0 Z0=5e+01 TD=1e-09 REL=10 ABS=10",
+                                          "T_spur_ideal b_ideal 0 c_ideal 0 Z0=7.5e+01 TD=3e-10 REL=10 ABS=10"});
+  CHECK(deck.find("V_a_ideal a_ideal__src 0 PWL(") != std::string::npos);
+  CHECK(deck.find(" v(a_ideal) v(b_ideal) v(c_ideal)\n") != std::string::npos);
+  // The ladder circuit is as without the option: the plain deck up to its analysis.
+  const std::string plain = deck_of(text);
+  const std::string ladder_part = plain.substr(0, plain.find("\n* transient analysis"));
+  CHECK(deck.rfind(ladder_part, 0) == 0);
+  CHECK(plain.find("T_") == std::string::npos);
+}
+
+TEST_CASE("a template folder (--templates) replaces the deck's fixed parts", "[cli]") {
+  // The issue's own check: a changed template changes the output, and only where it is used.
+  TempDir dir;
+  const std::string analysis = read_file(kSource / "templates" / "analysis.tmpl");
+  const std::size_t tran = analysis.find(".tran ");
+  REQUIRE(tran != std::string::npos);
+  std::string changed = analysis;
+  changed.insert(tran, ".options method=gear reltol=1e-4\n");
+  write_file(dir.path / "analysis.tmpl", changed);
+  write_file(dir.path / "header.tmpl", "* {{design}} for the bench rig: {{lines}}\n");
+
+  const std::string plain = deck_of(kSmall);
+  const auto r = run_rungs("emit - -q --templates " + dir.path.string(), kSmall);
+  CHECK(r.exit_code == 0);
+  CHECK(r.err.empty());
+  const std::string& deck = r.out;
+  CHECK(deck != plain);
+  // Header: the marker stays (it is not a template), then the new header.
+  const std::size_t marker_end = plain.find('\n') + 1;
+  CHECK(deck.substr(0, marker_end) == plain.substr(0, marker_end));
+  CHECK(deck.substr(marker_end).rfind("* design for the bench rig: 1 line\n\n* line feed:", 0) == 0);
+  // Analysis: the new line just before .tran; everything else as before.
+  CHECK(deck.find(".options method=gear reltol=1e-4\n.tran ") != std::string::npos);
+  std::string expected = plain;
+  expected.insert(expected.find(".tran "), ".options method=gear reltol=1e-4\n");
+  const std::size_t body = plain.find("\n* line feed:");
+  CHECK(deck.substr(deck.find("\n* line feed:")) == expected.substr(body));
+}
+
+TEST_CASE("a template that does not fill is an error and nothing is written", "[cli]") {
+  TempDir dir;
+  const fs::path templates = dir.path / "templates";
+  fs::create_directory(templates);
+  write_file(templates / "line_begin.tmpl",
+             "* line {{name}}, {{impedance}} ohm\n.subckt {{subckt}} near far ref\n");
+  const fs::path deck = dir.path / "deck.cir";
+  const auto r = run_rungs("emit - -o " + deck.string() + " --templates " + templates.string(),
+                           kSmall);
+  CHECK(r.exit_code == 2);
+  CHECK(r.out.empty());
+  CHECK(r.err == "rungs: template line_begin: unknown placeholder {{impedance}}; it knows "
+                 "delay, model, name, sections, shape, subckt, z0\n");
+  CHECK(dir.entries() == std::set<std::string>{"templates"});
+
+  // A deck already there stays as it was.
+  REQUIRE(run_rungs("emit - -q -o " + deck.string(), kOther).exit_code == 0);
+  const auto again = run_rungs("emit - -o " + deck.string() + " --templates " +
+                                   templates.string(),
+                               kSmall);
+  CHECK(again.exit_code == 2);
+  CHECK(read_file(deck) == deck_of(kOther));
+  CHECK(dir.entries() == std::set<std::string>{"deck.cir", "templates"});
+}
+
+TEST_CASE("a template folder with a misnamed part, or no folder, is an error", "[cli]") {
+  TempDir dir;
+  write_file(dir.path / "headr.tmpl", "* {{design}}\n");
+  const auto misnamed = run_rungs("emit - -q --templates " + dir.path.string(), kSmall);
+  CHECK(misnamed.exit_code == 2);
+  CHECK(misnamed.out.empty());
+  CHECK(misnamed.err == "rungs: " + (dir.path / "headr.tmpl").string() +
+                            ": no deck part is called 'headr'; did you mean 'header'?\n");
+  const std::string file = (dir.path / "headr.tmpl").string();
+  const auto not_folder = run_rungs("emit - -q --templates " + file, kSmall);
+  CHECK(not_folder.exit_code == 2);
+  CHECK(not_folder.err == "rungs: --templates '" + file + "' is not a folder\n");
+}
+
+TEST_CASE("the reports (--report, --report-json) are written beside the deck", "[cli]") {
+  TempDir dir;
+  const fs::path input = dir.path / "small.rungs";
+  write_file(input, kSmall);
+  const fs::path deck = dir.path / "small.cir", text = dir.path / "small.txt",
+                 json = dir.path / "small.json";
+  const auto r = run_rungs("emit " + input.string() + " -q -o " + deck.string() + " --report " +
+                           text.string() + " --report-json " + json.string());
+  CHECK(r.exit_code == 0);
+  CHECK(dir.entries() ==
+        std::set<std::string>{"small.rungs", "small.cir", "small.txt", "small.json"});
+  // The reports are what `rungs plan` prints.
+  const auto plan_text = run_rungs("plan " + input.string());
+  const auto plan_json = run_rungs("plan --json " + input.string());
+  CHECK(plan_text.exit_code == 0);
+  CHECK(plan_json.exit_code == 0);
+  CHECK(read_file(text) == plan_text.out);
+  CHECK(read_file(json) == plan_json.out);
+  CHECK(read_file(text).rfind("design small (" + input.string() + "): 1 line", 0) == 0);
+  CHECK(read_file(json).find("\"version\": 1") != std::string::npos);
+  CHECK(read_file(deck).rfind("* generated by rungs ", 0) == 0);
+}
+
+TEST_CASE("bad input writes nothing and exits 2", "[cli]") {
+  TempDir dir;
+  const std::string outputs = " -o " + (dir.path / "deck.cir").string() + " --report " +
+                              (dir.path / "r.txt").string() + " --report-json " +
+                              (dir.path / "r.json").string();
+  SECTION("a syntax error") {
+    const auto r = run_rungs("emit -" + outputs, "line a -> b coax\n");
+    CHECK(r.exit_code == 2);
+    CHECK(r.out.empty());
+    CHECK(r.err.rfind("<stdin>:1:8: error:", 0) == 0);
+    CHECK(r.err.find("<stdin>: 1 error; nothing written\n") != std::string::npos);
+  }
+  SECTION("a design the planner cannot plan: no edge reaches the line") {
+    const auto r = run_rungs("emit -" + outputs, "line t a -> b ideal z0=50ohm delay=1ns\n");
+    CHECK(r.exit_code == 2);
+    CHECK(r.err.find("error: no drive reaches line 't'") != std::string::npos);
+    CHECK(r.err.find("<stdin>: 1 error; nothing written\n") != std::string::npos);
+  }
+  CHECK(dir.entries().empty());
+}
+
+TEST_CASE("bad input leaves a deck already there as it was", "[cli]") {
+  TempDir dir;
+  const fs::path deck = dir.path / "deck.cir";
+  REQUIRE(run_rungs("emit - -q -o " + deck.string(), kSmall).exit_code == 0);
+  const std::string before = read_file(deck);
+  CHECK(run_rungs("emit - -o " + deck.string(), "line a -> b coax\n").exit_code == 2);
+  CHECK(read_file(deck) == before);
+  CHECK(dir.entries() == std::set<std::string>{"deck.cir"});
+}
+
+TEST_CASE("a deck that cannot be written is exit code 3", "[cli]") {
+  TempDir dir;
+  const fs::path deck = dir.path / "no_such_folder" / "deck.cir";
+  const auto r = run_rungs("emit - -q -o " + deck.string(), kSmall);
+  CHECK(r.exit_code == 3);
+  CHECK(r.err.rfind("rungs: cannot write '" + (dir.path / "no_such_folder").string(), 0) == 0);
+  CHECK(dir.entries().empty());
+}
+
+}  // namespace
