@@ -6,8 +6,9 @@
 // Golden files live in tests/golden/: <stem>.cir is the deck and <stem>.report.txt the text
 // report (--report) of examples/<stem>.rungs or tests/golden/<stem>.rungs, emitted from the
 // source folder, so that the deck's header names its source as `examples/<stem>.rungs`;
-// <stem>.<option>.cir is the deck emitted with --<option>. When a change to the emitted
-// text is meant, rewrite them instead of comparing:
+// <stem>.library.cir and <stem>.with_ideal.cir are the decks emitted with --library and
+// --with-ideal. When a change to the emitted text is meant, rewrite them instead of
+// comparing:
 //
 //   RUNGS_UPDATE_GOLDEN=1 ./build/tests/emit_cli_test "[golden]"
 //
@@ -167,15 +168,17 @@ std::vector<std::string> rungs_files(const fs::path& folder, const std::string& 
   return files;
 }
 
-/// Every example and golden design plainly, and two designs with each option.
+/// Every example and golden design plainly, and some golden designs with an option.
 std::vector<GoldenCase> golden_cases() {
   std::vector<GoldenCase> cases;
   for (const std::string& input : rungs_files(kSource / "examples", "examples/"))
     cases.push_back({input, ""});
-  for (const std::string& input : rungs_files(kGolden, "tests/golden/")) cases.push_back({input, ""});
+  for (const std::string& input : rungs_files(kGolden, "tests/golden/"))
+    cases.push_back({input, ""});
   cases.push_back({"tests/golden/lossy_shapes.rungs", "library"});
   cases.push_back({"tests/golden/lossy_shapes.rungs", "with-ideal"});
   cases.push_back({"tests/golden/name_clashes.rungs", "with-ideal"});
+  cases.push_back({"tests/golden/drives_and_loads.rungs", "with-ideal"});
   return cases;
 }
 
@@ -280,8 +283,9 @@ std::string comma_locale() {
 TEST_CASE("the binary writes the same bytes under a decimal-comma locale", "[determinism]") {
   const std::string locale = comma_locale();
   if (locale.empty()) {
-    WARN("no decimal-comma locale here and none could be built (install Debian's `locales`); "
-         "only the default locale is checked");
+    WARN(
+        "no decimal-comma locale here and none could be built (install Debian's `locales`); "
+        "only the default locale is checked");
   } else {
     // The locale is really in force for a program that asks for it (coreutils printf does).
     const ScopedEnv all("LC_ALL", locale);
@@ -311,8 +315,7 @@ Emitted emit_in_process(const GoldenCase& c) {
   namespace syntax = rungs::syntax;
   const syntax::SourceFile file{c.input, read_file(kSource / c.input)};
   syntax::Diagnostics diagnostics(file);
-  const auto circuit =
-      rungs::physics::resolve(syntax::parse_description(diagnostics), diagnostics);
+  const auto circuit = rungs::physics::resolve(syntax::parse_description(diagnostics), diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
   const auto plan = rungs::plan::plan_circuit(circuit, diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
@@ -325,14 +328,12 @@ Emitted emit_in_process(const GoldenCase& c) {
   return {0, "", deck.str(), rungs::report::plan_text(circuit, plan, peak, file.name)};
 }
 
-TEST_CASE("the stages write the same bytes with a decimal-comma global locale",
-          "[determinism]") {
+TEST_CASE("the stages write the same bytes with a decimal-comma global locale", "[determinism]") {
   const std::string name = comma_locale();
   // A named locale also sets the C library's locale (printf, strtod); the fallback changes
   // the C++ streams only.
-  const std::locale comma = name.empty()
-                                ? std::locale(std::locale::classic(), new CommaPunctuation)
-                                : std::locale(name);
+  const std::locale comma =
+      name.empty() ? std::locale(std::locale::classic(), new CommaPunctuation) : std::locale(name);
   if (name.empty()) WARN("no decimal-comma locale here: the C++ streams' locale only");
   struct Restore {
     std::locale previous;
@@ -408,9 +409,9 @@ std::string many_lines(int lines, int sections) {
   std::string text = "design many\n";
   for (int i = 0; i < lines; ++i) {
     const std::string n = std::to_string(i);
-    text += "line l" + n + " a" + n + " -> b" + n + " ideal z0=50ohm delay=1ns sections=" +
-            std::to_string(sections) + "\ndrive a" + n + " step 0V to 1V rise=100ps source=50ohm\n" +
-            "load b" + n + " 50ohm\n";
+    text += "line l" + n + " a" + n + " -> b" + n +
+            " ideal z0=50ohm delay=1ns sections=" + std::to_string(sections) + "\ndrive a" + n +
+            " step 0V to 1V rise=100ps source=50ohm\n" + "load b" + n + " 50ohm\n";
   }
   return text;
 }
@@ -424,9 +425,12 @@ TEST_CASE("while a deck is replaced, a reader sees the old one or the new one wh
   const std::string old_deck = read_file(deck);
 
   const std::string binary = RUNGS_BINARY, out = deck.string(), in = input.string();
-  std::vector<char*> argv = {const_cast<char*>(binary.c_str()), const_cast<char*>("emit"),
-                             const_cast<char*>(in.c_str()),     const_cast<char*>("-q"),
-                             const_cast<char*>("-o"),           const_cast<char*>(out.c_str()),
+  std::vector<char*> argv = {const_cast<char*>(binary.c_str()),
+                             const_cast<char*>("emit"),
+                             const_cast<char*>(in.c_str()),
+                             const_cast<char*>("-q"),
+                             const_cast<char*>("-o"),
+                             const_cast<char*>(out.c_str()),
                              nullptr};
   pid_t pid = 0;
   REQUIRE(::posix_spawn(&pid, binary.c_str(), nullptr, nullptr, argv.data(), environ) == 0);
@@ -515,8 +519,9 @@ TEST_CASE("the option --with-ideal adds the simulator's ideal line beside each l
   std::vector<std::string> ideal;
   for (const std::string& line : top_level_lines(deck))
     if (line[0] == 'T') ideal.push_back(line);
-  CHECK(ideal == std::vector<std::string>{"T_feed_ideal a_ideal 0 b_ideal 0 Z0=5e+01 TD=1e-09 REL=10 ABS=10",
-                                          "T_spur_ideal b_ideal 0 c_ideal 0 Z0=7.5e+01 TD=3e-10 REL=10 ABS=10"});
+  CHECK(ideal == std::vector<std::string>{
+                     "T_feed_ideal a_ideal 0 b_ideal 0 Z0=5e+01 TD=1e-09 REL=10 ABS=10",
+                     "T_spur_ideal b_ideal 0 c_ideal 0 Z0=7.5e+01 TD=3e-10 REL=10 ABS=10"});
   CHECK(deck.find("V_a_ideal a_ideal__src 0 PWL(") != std::string::npos);
   CHECK(deck.find(" v(a_ideal) v(b_ideal) v(c_ideal)\n") != std::string::npos);
   // The ladder circuit is as without the option: the plain deck up to its analysis.
@@ -546,7 +551,8 @@ TEST_CASE("a template folder (--templates) replaces the deck's fixed parts", "[c
   // Header: the marker stays (it is not a template), then the new header.
   const std::size_t marker_end = plain.find('\n') + 1;
   CHECK(deck.substr(0, marker_end) == plain.substr(0, marker_end));
-  CHECK(deck.substr(marker_end).rfind("* design for the bench rig: 1 line\n\n* line feed:", 0) == 0);
+  CHECK(deck.substr(marker_end).rfind("* design for the bench rig: 1 line\n\n* line feed:", 0) ==
+        0);
   // Analysis: the new line just before .tran; everything else as before.
   CHECK(deck.find(".options method=gear reltol=1e-4\n.tran ") != std::string::npos);
   std::string expected = plain;
@@ -562,19 +568,19 @@ TEST_CASE("a template that does not fill is an error and nothing is written", "[
   write_file(templates / "line_begin.tmpl",
              "* line {{name}}, {{impedance}} ohm\n.subckt {{subckt}} near far ref\n");
   const fs::path deck = dir.path / "deck.cir";
-  const auto r = run_rungs("emit - -o " + deck.string() + " --templates " + templates.string(),
-                           kSmall);
+  const auto r =
+      run_rungs("emit - -o " + deck.string() + " --templates " + templates.string(), kSmall);
   CHECK(r.exit_code == 2);
   CHECK(r.out.empty());
-  CHECK(r.err == "rungs: template line_begin: unknown placeholder {{impedance}}; it knows "
-                 "delay, model, name, sections, shape, subckt, z0\n");
+  CHECK(r.err ==
+        "rungs: template line_begin: unknown placeholder {{impedance}}; it knows "
+        "delay, model, name, sections, shape, subckt, z0\n");
   CHECK(dir.entries() == std::set<std::string>{"templates"});
 
   // A deck already there stays as it was.
   REQUIRE(run_rungs("emit - -q -o " + deck.string(), kOther).exit_code == 0);
-  const auto again = run_rungs("emit - -o " + deck.string() + " --templates " +
-                                   templates.string(),
-                               kSmall);
+  const auto again =
+      run_rungs("emit - -o " + deck.string() + " --templates " + templates.string(), kSmall);
   CHECK(again.exit_code == 2);
   CHECK(read_file(deck) == deck_of(kOther));
   CHECK(dir.entries() == std::set<std::string>{"deck.cir", "templates"});

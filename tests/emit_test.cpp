@@ -69,8 +69,8 @@ const std::regex kExponentForm(R"(0|-?[1-9](\.[0-9]+)?e[+-][0-9]{2,3})");
 
 std::string shortest_scientific(double value) {
   char buffer[64];
-  const auto result = std::to_chars(buffer, buffer + sizeof buffer, value,
-                                    std::chars_format::scientific);
+  const auto result =
+      std::to_chars(buffer, buffer + sizeof buffer, value, std::chars_format::scientific);
   return std::string(buffer, result.ptr);
 }
 
@@ -103,7 +103,7 @@ TEST_CASE("spice_number writes fixed values in plain exponent notation") {
 }
 
 TEST_CASE("spice_number round-trips random doubles with the fewest digits") {
-  std::mt19937_64 random(20240601);  // fixed seed: a failure reproduces
+  std::mt19937_64 random(20240601);                              // fixed seed: a failure reproduces
   std::uniform_real_distribution<double> exponent(-18.0, 12.0);  // fs ... TV, a deck's range
   int checked = 0;
   for (int i = 0; i < 20000; ++i) {
@@ -129,12 +129,10 @@ TEST_CASE("spice_number round-trips random doubles with the fewest digits") {
   CHECK(checked > 19000);
 }
 
-// Known problem, left failing on purpose ([!shouldfail]): for some exact powers of two,
-// where the gap below a double is half the gap above it, spice_number writes 17 digits
-// although 16 read back: 2^-24 comes out as 5.9604644775390625e-08, not 5.960464477539063e-08.
-// The text still reads back to the same double. Remove the tag once spice_number keeps its
-// "fewest digits" promise for these too.
-TEST_CASE("spice_number gives powers of two the fewest digits too", "[!shouldfail]") {
+// A bug once, kept as a regression test: for some exact powers of two, where the gap below a
+// double is half the gap above it, spice_number wrote 17 digits although 16 read back
+// (2^-24 as 5.9604644775390625e-08, not 5.960464477539063e-08).
+TEST_CASE("spice_number gives powers of two the fewest digits too") {
   for (int e = -1074; e <= 1023; ++e) {
     const double value = std::ldexp(1.0, e);
     INFO("2^" << e);
@@ -193,8 +191,8 @@ TEST_CASE("write_ladder writes plan::ladder_elements elements for every shape") 
     for (int sections : {1, 2, 3, 10, 257}) {
       for (bool r : {false, true}) {
         for (bool g : {false, true}) {
-          INFO("shape " << physics::shape_name(shape) << ", " << sections << " sections, r "
-                        << r << ", g " << g);
+          INFO("shape " << physics::shape_name(shape) << ", " << sections << " sections, r " << r
+                        << ", g " << g);
           long long returned = 0;
           const std::string text = ladder_text(line_plan(sections, shape, r, g), {}, &returned);
           const auto elements = parse_elements(text);
@@ -292,10 +290,10 @@ TEST_CASE("every ladder is one series chain with its shunts to ref and the line'
   for (Shape shape : {Shape::pi, Shape::t, Shape::l}) {
     for (int n : {1, 2, 5, 40}) {
       for (bool lossy : {false, true}) {
-        INFO("shape " << physics::shape_name(shape) << ", " << n << " sections, lossy "
-                      << lossy);
+        INFO("shape " << physics::shape_name(shape) << ", " << n << " sections, lossy " << lossy);
         const plan::LinePlan lp = line_plan(n, shape, lossy, lossy);
-        const auto elements = parse_elements(ladder_text(lp, lossy ? 5.0 : std::optional<double>{}));
+        const auto elements =
+            parse_elements(ladder_text(lp, lossy ? 5.0 : std::optional<double>{}));
 
         std::set<std::string> names;
         std::map<std::string, double> total;
@@ -328,17 +326,22 @@ TEST_CASE("every ladder is one series chain with its shunts to ref and the line'
           CHECK(count["G"] == count["C"]);
         }
 
+        // Along the chain: inner nodes n<k> (and m<k> with R), then the shunts: one C (and
+        // its G) at every n<k>, at both ports of a pi ladder, at the far port of an L ladder.
         const std::vector<std::string> path = series_path(elements);
-        // Shunts sit on the chain's shunt nodes only; which ones, and the halves, by shape.
-        std::vector<std::string> shunt_nodes;
-        for (const std::string& node : path)
-          if (shunts_at.count(node)) shunt_nodes.push_back(node);
-        CHECK(shunt_nodes.size() == shunts_at.size());
-        CHECK(static_cast<int>(count["L"]) == (shape == Shape::t ? n + 1 : n));
-        CHECK(static_cast<int>(count["C"]) == (shape == Shape::pi ? n + 1 : n));
-        const bool ends_shunted = shape == Shape::pi;
-        CHECK(shunts_at.count("near") == (ends_shunted ? 1u : 0u));
-        CHECK(shunts_at.count("far") == (shape == Shape::t ? 0u : 1u));
+        CHECK(path.size() == static_cast<std::size_t>(count["L"] + count["R"] + 1));
+        std::size_t shunted = 0;
+        for (const std::string& node : path) {
+          const bool inner = node != "near" && node[0] == 'n';
+          const bool want = inner || (node == "near" && shape == Shape::pi) ||
+                            (node == "far" && shape != Shape::t);
+          INFO("node " << node);
+          CHECK(shunts_at[node].size() == (want ? (lossy ? 2u : 1u) : 0u));
+          shunted += want;
+        }
+        CHECK(shunted == static_cast<std::size_t>(count["C"]));
+        CHECK(count["L"] == (shape == Shape::t ? n + 1 : n));
+        CHECK(count["C"] == (shape == Shape::pi ? n + 1 : n));
         for (const Element& e : elements) {
           const std::string kind = kind_of(e);
           // The halves: a pi ladder's shunts on its ports, a T ladder's first and last series
@@ -427,9 +430,9 @@ std::string deck_of(const std::string& text, emit::DeckOptions options = {}) {
   const plan::Plan plan = plan::plan_circuit(circuit, diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
   std::ostringstream out;
-  const std::string error = emit::write_deck(out, circuit, plan,
-                                             {file.name, emit::sha256_hex(file.text)},
-                                             emit::builtin_templates(), options);
+  const std::string error =
+      emit::write_deck(out, circuit, plan, {file.name, emit::sha256_hex(file.text)},
+                       emit::builtin_templates(), options);
   REQUIRE(error.empty());
   return out.str();
 }
@@ -540,11 +543,11 @@ void check_same_circuit(const TopLevel& clashing, const TopLevel& plain) {
 /// A design whose nodes are given by `n`: the drive on n[0], loads on n[1], n[3], n[5].
 std::string clash_design(const std::vector<std::string>& n) {
   std::string text = "set rise 200ps\n";
-  const char* lines[][3] = {{"x", "0", "1"}, {"y", "1", "2"}, {"z", "2", "3"},
-                            {"w", "1", "4"}, {"u", "4", "5"}};
+  const char* lines[][3] = {
+      {"x", "0", "1"}, {"y", "1", "2"}, {"z", "2", "3"}, {"w", "1", "4"}, {"u", "4", "5"}};
   for (const auto& l : lines)
-    text += std::string("line ") + l[0] + " " + n[std::stoul(l[1])] + " -> " +
-            n[std::stoul(l[2])] + " ideal z0=50ohm delay=300ps\n";
+    text += std::string("line ") + l[0] + " " + n[std::stoul(l[1])] + " -> " + n[std::stoul(l[2])] +
+            " ideal z0=50ohm delay=300ps\n";
   text += "drive " + n[0] + " step 0V to 1V rise=200ps source=50ohm\n";
   text += "load " + n[1] + " 1kohm at=2ns\n";
   text += "load " + n[3] + " 50ohm + 1pF\n";
@@ -574,8 +577,8 @@ TEST_CASE("user nodes named like generated names keep the circuit as written") {
 }
 
 TEST_CASE("with the ideal lines beside, the two circuits share only ground") {
-  const TopLevel top = top_level(deck_of(clash_design({"a", "a__src", "R_b", "b", "v_A", "X_x"}),
-                                         {false, true}));
+  const TopLevel top =
+      top_level(deck_of(clash_design({"a", "a__src", "R_b", "b", "v_A", "X_x"}), {false, true}));
   check_unique_names(top);
   check_same_circuit(top, top_level(deck_of(clash_design(kPlainNodes), {false, true})));
   int ideal_lines = 0;
@@ -583,22 +586,19 @@ TEST_CASE("with the ideal lines beside, the two circuits share only ground") {
   CHECK(ideal_lines == 5);
 }
 
-// Known problem, left failing on purpose ([!shouldfail]): the ideal copy of node `b` is
-// written as `b_ideal` whatever the names table says, so a user's own node `b_ideal` joins
-// the ladder circuit to the ideal one, and `.save` names `v(b_ideal_2)`, a node the deck does
-// not have. Remove the tag once the ideal copy takes its node names from the names table.
-TEST_CASE("with the ideal lines beside, a user's node named like an ideal copy stays apart",
-          "[!shouldfail]") {
-  const TopLevel top = top_level(deck_of(clash_design({"a", "a_ideal", "b", "b_ideal", "c", "d"}),
-                                         {false, true}));
+// A bug once, kept as a regression test: the ideal copy of node `b` was written as `b_ideal`
+// whatever the names table said, so a user's own node `b_ideal` joined the ladder circuit to
+// the ideal one.
+TEST_CASE("with the ideal lines beside, a user's node named like an ideal copy stays apart") {
+  const TopLevel top =
+      top_level(deck_of(clash_design({"a", "a_ideal", "b", "b_ideal", "c", "d"}), {false, true}));
   check_unique_names(top);
   check_same_circuit(top, top_level(deck_of(clash_design(kPlainNodes), {false, true})));
 }
 
-// Known problem, left failing on purpose ([!shouldfail]): a node named like a line's
-// subcircuit (`line_x` for line x) is taken as reserved by the subcircuit's name, and left
-// out of `.save`, so its waveform is lost. Remove the tag once every line end is saved.
-TEST_CASE("a node named like a line's subcircuit is saved", "[!shouldfail]") {
+// A bug once, kept as a regression test: a node named like a line's subcircuit (`line_x` for
+// line x) was taken as reserved by the subcircuit's name and left out of `.save`.
+TEST_CASE("a node named like a line's subcircuit is saved") {
   const TopLevel top = top_level(deck_of(clash_design({"a", "line_x", "b", "line_y", "c", "d"})));
   check_unique_names(top);
   check_same_circuit(top, top_level(deck_of(clash_design(kPlainNodes))));
@@ -674,8 +674,9 @@ TEST_CASE("check_templates passes the built-in set and names what is wrong in ot
 TEST_CASE("write_deck reports a template that does not fill") {
   emit::TemplateSet bad = emit::builtin_templates();
   bad["line_begin"] = ".subckt {{subckt}} near far ref {{impedance}}\n";
-  const syntax::SourceFile file{"t.rungs", "line t a -> b ideal z0=50ohm delay=1ns\n"
-                                           "drive a step 0V to 1V rise=100ps\nload b 50ohm\n"};
+  const syntax::SourceFile file{"t.rungs",
+                                "line t a -> b ideal z0=50ohm delay=1ns\n"
+                                "drive a step 0V to 1V rise=100ps\nload b 50ohm\n"};
   syntax::Diagnostics diagnostics(file);
   const auto circuit = physics::resolve(syntax::parse_description(diagnostics), diagnostics);
   const auto plan = plan::plan_circuit(circuit, diagnostics);
@@ -688,9 +689,8 @@ TEST_CASE("write_deck reports a template that does not fill") {
 // ---- the marker and the hash --------------------------------------------------------------
 
 TEST_CASE("the deck marker names the tool, its version and the source") {
-  CHECK(emit::deck_marker("board.rungs") ==
-        std::string("* generated by rungs ") + RUNGS_VERSION +
-            " from board.rungs; do not edit, regenerate it");
+  CHECK(emit::deck_marker("board.rungs") == std::string("* generated by rungs ") + RUNGS_VERSION +
+                                                " from board.rungs; do not edit, regenerate it");
   CHECK(emit::is_deck_marker(emit::deck_marker("x")));
   CHECK(emit::is_deck_marker("* generated by rungs 9.9.9 from other.rungs; do not edit"));
   CHECK_FALSE(emit::is_deck_marker("* my own deck"));
@@ -709,8 +709,7 @@ TEST_CASE("sha256_hex agrees with the published test vectors") {
   CHECK(emit::sha256_hex(std::string(1000000, 'a')) ==
         "cdc76e5c9914fb9281a1c7e284d73e67f1809a48a497200e046d39ccc7112cd0");
   // The empty message: NIST CAVP SHA256ShortMsg.rsp, Len = 0.
-  CHECK(emit::sha256_hex("") ==
-        "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855");
+  CHECK(emit::sha256_hex("") == "e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855");
   // The vectors above are recalled from the documents named, not re-read; each was confirmed
   // with GNU coreutils sha256sum 9.1 when this test was written.
 }

@@ -176,9 +176,16 @@ std::string refuse_foreign(const std::string& path, bool protect_foreign, bool f
 /// that already holds the bytes is left as it is, and no temporary file is made.
 WriteOutcome write_through_temporary(const std::string& path, const ContentWriter& write,
                                      bool keep_if_same) {
-  const fs::path target(path);
-  const fs::path temporary = target.parent_path() / temporary_name(target);
   std::error_code ec;
+  // Write through a link to the file it names, so the link stays; refuse anything that is
+  // not a plain file (a device, a folder), which the rename would replace.
+  fs::path target(path);
+  if (fs::is_symlink(target, ec)) target = fs::weakly_canonical(target, ec);
+  if (fs::exists(target, ec) && !fs::is_regular_file(target, ec))
+    return {fmt::format("'{}' is not a plain file; name a file to write, or - for standard "
+                        "output",
+                        path)};
+  const fs::path temporary = target.parent_path() / temporary_name(target);
   std::filebuf file;
   int open_errno = 0;
   auto open_temporary = [&]() -> std::streambuf* {
@@ -194,7 +201,7 @@ WriteOutcome write_through_temporary(const std::string& path, const ContentWrite
   const bool same = buffer.finish();
   if (same) return {"", false};
   if (open_errno != 0)
-    return {fmt::format("cannot write '{}': {}", temporary.string(), std::strerror(open_errno))};
+    return {fmt::format("cannot write '{}': {}", path, std::strerror(open_errno))};
   const bool closed = file.close() != nullptr;
   const int saved_errno = errno;
   if (buffer.sink_failed() || !closed || !out) {

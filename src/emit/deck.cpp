@@ -62,14 +62,19 @@ std::string wave_of(const physics::Drive& d, double rise) {
 class TopLevel {
  public:
   TopLevel(std::ostream& out, const Circuit& circuit, const plan::Plan& plan, NameTable& names,
-           double switch_time)
-      : out_(out), circuit_(circuit), plan_(plan), names_(names), switch_time_(switch_time) {}
+           const std::map<std::string, std::string>& ideal_nodes, double switch_time)
+      : out_(out),
+        circuit_(circuit),
+        plan_(plan),
+        names_(names),
+        ideal_nodes_(ideal_nodes),
+        switch_time_(switch_time) {}
 
   void write(std::string_view suffix) {
     suffix_ = suffix;
     const bool ideal = !suffix.empty();
     out_ << fmt::format("\n* ---- {} ----\n", ideal ? "the same circuit with the simulator's "
-                                                     "ideal lines, for comparison"
+                                                     "ideal lossless lines, for comparison"
                                                    : "circuit");
     for (std::size_t i = 0; i < circuit_.lines.size(); ++i) {
       const physics::Line& line = circuit_.lines[i];
@@ -93,8 +98,10 @@ class TopLevel {
     for (const physics::Load& l : circuit_.loads) load(l);
   }
 
+  /// A node of the description in this copy: its own name, or its claimed ideal twin.
   std::string node(const std::string& name) const {
-    return physics::is_ground(name) ? "0" : name + suffix_;
+    if (physics::is_ground(name)) return "0";
+    return suffix_.empty() ? name : ideal_nodes_.at(name);
   }
 
  private:
@@ -160,6 +167,7 @@ class TopLevel {
   const Circuit& circuit_;
   const plan::Plan& plan_;
   NameTable& names_;
+  const std::map<std::string, std::string>& ideal_nodes_;
   double switch_time_;
   std::string suffix_;
 };
@@ -256,19 +264,24 @@ std::string write_deck(std::ostream& out, const Circuit& circuit, const plan::Pl
   }
   if (options.library || !error.empty()) return error;
 
+  // Subcircuit names live apart from node and element names in SPICE, so only nodes and
+  // top-level elements share this table; the description's nodes are reserved first.
   NameTable names;
   std::vector<std::string> saved;
   for (const physics::Line& line : circuit.lines) {
-    names.reserve("line_" + sanitize_name(line.name));
     for (const std::string* end : {&line.near, &line.far}) {
       if (names.reserve(*end)) saved.push_back(*end);
     }
   }
+  std::map<std::string, std::string> ideal_nodes;
   if (options.with_ideal) {
-    for (std::size_t i = 0, n = saved.size(); i < n; ++i) saved.push_back(names.claim(saved[i] + "_ideal"));
+    for (std::size_t i = 0, n = saved.size(); i < n; ++i) {
+      ideal_nodes[saved[i]] = names.claim(saved[i] + "_ideal");
+      saved.push_back(ideal_nodes[saved[i]]);
+    }
   }
   const double switch_time = std::min(plan.time_step, 1e-12);
-  TopLevel top(out, circuit, plan, names, switch_time);
+  TopLevel top(out, circuit, plan, names, ideal_nodes, switch_time);
   top.write("");
   if (options.with_ideal) top.write("_ideal");
   if (has_switched_load(circuit))

@@ -93,8 +93,8 @@ std::string plan_text(const physics::Circuit& circuit, const plan::Plan& plan,
   out += fmt::format("\ntotal ladder elements: {}\n", plan.elements);
   out += "predicted errors are the analytic estimate at the edge's knee frequency (0.5/rise)\n";
   if (peak.computed)
-    out += fmt::format("peak: line ends swing up to {:.3g} times the drive's swing; highest "
-                       "voltage {:.4g} V at node {} (lossless analysis)\n",
+    out += fmt::format("peak: the largest line-end excursion is {:.3g} of the drive's swing; "
+                       "highest voltage at most {:.4g} V, at node {} (lossless analysis)\n",
                        peak.ratio, peak.voltage, peak.node);
   else
     out += "peak: not computed (circuit too large for the quick lossless analysis)\n";

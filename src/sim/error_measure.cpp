@@ -81,8 +81,7 @@ WaveformError compare_waveforms(std::span<const double> t, std::span<const doubl
 
 LadderError measure_ladder_error(const physics::Circuit& circuit, const Response& exact,
                                  const std::vector<LadderSpec>& ladders,
-                                 const ReferenceOptions& options,
-                                 ResponseWorkspace* workspace) {
+                                 const ReferenceOptions& options, ResponseWorkspace* workspace) {
   if (ladders.size() != circuit.lines.size())
     throw std::invalid_argument("give a ladder for every line");
   std::vector<std::optional<LadderSpec>> choice(ladders.begin(), ladders.end());
@@ -122,20 +121,15 @@ LadderError measure_ladder_error(const physics::Circuit& circuit, const Response
         any = true;
         // The difference's own truncation: e_K - e_{K/2}, from both responses' halves.
         double trunc = 0.0;
-        double coarse_peak = 0.0;
         for (std::size_t j = 0; j < exact.coarse[c][*i].size(); ++j) {
           const double fine = lad.v[c][*i][2 * j] - exact.v[c][*i][2 * j];
           const double coarse = lad.coarse[c][*i][j] - exact.coarse[c][*i][j];
           trunc = std::max(trunc, std::abs(fine - coarse));
-          coarse_peak = std::max(coarse_peak, std::abs(coarse));
         }
         end.accuracy = std::max(end.accuracy, trunc / std::abs(swing));
-        end.extrapolated =
-            std::max(end.extrapolated, 2.0 * w.error - coarse_peak / std::abs(swing));
       }
       out.line_errors[k] = std::max(out.line_errors[k], end.worst.error);
       out.error = std::max(out.error, end.worst.error);
-      out.extrapolated = std::max(out.extrapolated, end.extrapolated);
       accuracy = std::max(accuracy, end.accuracy);
       out.ends.push_back(std::move(end));
     }

@@ -48,19 +48,12 @@ struct EndError {
   /// Estimated error of `worst.error` itself: the largest |e_K - e_{K/2}| over the window of the
   /// difference e = v_ladder - v_exact (the inversion's truncation), over |swing|.
   double accuracy = 0.0;
-  /// Richardson's extrapolation of the largest difference to an unlimited band, 2 E_K - E_{K/2}
-  /// with E the largest |e| from K and from K/2 frequencies, over |swing| (the largest over
-  /// sources). Truncation rounds the corners of e and so lowers its peak by about c/K; this
-  /// removes that leading term. Trust it once `accuracy` is small beside the error (K in the
-  /// 1/K regime); far from it the two truncations need not follow the law.
-  double extrapolated = 0.0;
 };
 
 struct LadderError {
   std::vector<EndError> ends;       // the near then far end of each line; ends on ground left out
   std::vector<double> line_errors;  // per circuit line: the larger error of its two ends
   double error = 0.0;               // the largest of all ends
-  double extrapolated = 0.0;        // the largest EndError::extrapolated
   /// Estimated error of the figures: the largest end accuracy, plus the aliasing bounds of both
   /// responses. A planner may trust `error` to within this.
   double accuracy = 0.0;

@@ -18,8 +18,9 @@ namespace rungs::sim {
 
 struct ReferenceOptions {
   double window = 0.0;  // s, observed from t = 0; must be positive
-  /// The error the reference may carry, as a fraction of each source's swing. A planner checking
-  /// a tolerance should ask for a tenth of it or less.
+  /// The error the reference may carry, as a fraction of each source's swing. The estimate it is
+  /// held to (ReferenceAccuracy) is about the error, not a bound with a margin: a planner that
+  /// must keep the reference under a tenth of its tolerance should ask for a twentieth.
   double target = 1e-3;
   InitialState initial = InitialState::automatic;
   /// s: a switched load's compensation source falls to zero over this time instead of at once,
@@ -35,7 +36,8 @@ struct ReferenceOptions {
 struct ReferenceAccuracy {
   /// Estimated truncation error: the largest |v_K(t) - v_{K/2}(t)| over the window, between the
   /// inversion with all K frequencies and with the lower half. The truncation error of a
-  /// waveform with corners falls as 1/K, so this is about the error of v_K itself.
+  /// waveform with corners falls as 1/K, so this is about the error of v_K itself (within a
+  /// factor of about 1.5 either way on the cases of the tests).
   double truncation = 0.0;
   /// Bound of the aliasing term, e^{-sigma P}/(1 - e^{-sigma P}) times twice the largest
   /// |v| seen (the waveform beyond the window is not seen; twice is a margin).
@@ -87,10 +89,18 @@ class ResponseWorkspace {
 };
 
 /// The response of `circuit` on `grid`, each line exact or as ladders[k] (empty: all exact).
-/// Each source is solved at every s_k; the switched loads that close within the window are
+/// Each source is solved at every s_k; a jump at t = 0 (a charged line's ends, a low level
+/// applied at rest) is taken out first as v(0+)/s, v(0+) = lim s V(s) from a solution at a
+/// very large real s (the initial-value theorem), and added back exactly, so it does not ring.
+/// The switched loads that close within the window are
 /// compensated in the order they close: the open-switch voltage before closing comes from the
 /// inversion of the previous switch position and is transformed back (transform_until), so each
-/// switch costs one more pass over the frequencies. `options.window` bounds the samples kept.
+/// switch costs one more pass over the frequencies. Compensation rather than a piecewise
+/// solution: the next piece would start from the voltage and current along every line at the
+/// switching time, a function of position that a frequency-domain solution does not carry;
+/// compensation keeps one linear time-invariant network per switch position and brings only
+/// the switch node's voltage to the time domain and back. Its error is the inversion's, carried
+/// once more through that voltage. `options.window` bounds the samples kept.
 /// The accuracy is filled in against options.target. Throws what FrequencyNetwork throws, and
 /// std::invalid_argument when the window exceeds half the grid's period.
 Response frequency_response(const physics::Circuit& circuit,

@@ -174,7 +174,10 @@ Admittance ladder_admittance(const LineTotals& line, LadderSpec ladder, Complex 
     cosh_half = r.cosh_half;
     root_ratio = r.root_y * reciprocal(r.root_z);
   }
-  const Complex theta = 2.0 * std::asinh(q);
+  // asinh(q) = log(q + sqrt(1 + q^2)); with cosh(theta/2) = sqrt(1 + q^2) at hand the log
+  // saves the library's second root. |q + cosh(theta/2)| >= 1 for Re q >= 0, so the sum does
+  // not cancel; near q = 0 the log of a number near 1 loses digits, and asinh's series is used.
+  const Complex theta = 2.0 * (std::norm(q) < 1e-6 ? std::asinh(q) : std::log(q + cosh_half));
   // 1/Zi from sinh(theta) = 2 q cosh(theta/2) = sqrt(Z) sqrt(Y) cosh(theta/2): the pi section's
   // Z/sinh(theta) and the T section's sinh(theta)/Y without forming 1 + ZY/4, which cancels
   // near cutoff.

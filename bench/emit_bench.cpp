@@ -1,0 +1,196 @@
+// How fast decks are written and how much memory it takes: 1,000 lines whose sections grow
+// from 50 to 2,000 each (about 1e5, 1e6 and 4e6 ladder elements), in this process through
+// the emit stage and end to end through the `rungs emit` binary.
+#include <benchmark/benchmark.h>
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cstdio>
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <memory>
+#include <string>
+
+#include <sys/resource.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include "emit/deck.h"
+#include "emit/sha256.h"
+#include "emit/templates.h"
+#include "physics/resolve.h"
+#include "plan/plan.h"
+#include "syntax/diagnostics.h"
+#include "syntax/parser.h"
+
+namespace {
+
+namespace fs = std::filesystem;
+
+constexpr int kLines = 1000;
+
+fs::path& scratch() {
+  static fs::path dir;
+  return dir;
+}
+
+/// Sections a line so that kLines pi ladders (2N + 1 elements each) hold about `elements`.
+int sections_for(long long elements) {
+  return static_cast<int>(std::max(1LL, elements / kLines / 2));
+}
+
+long long elements_of(int sections) {
+  return kLines * rungs::plan::ladder_elements(sections, rungs::physics::Shape::pi, false, false);
+}
+
+/// An invented test board: kLines separate 48 ohm runs, each with its own driver and its
+/// own terminated receiver, every run split into `sections` sections.
+std::string design_text(int sections) {
+  std::string text = "design bench_board\n";
+  for (int i = 0; i < kLines; ++i) {
+    const std::string n = std::to_string(i);
+    text += "line run" + n + " tx" + n + " -> rx" + n +
+            " ideal z0=48ohm delay=2.3ns sections=" + std::to_string(sections) + "\n" + "drive tx" +
+            n + " step 0V to 1V rise=200ps source=50ohm\n" + "load rx" + n + " 50ohm || 2pF\n";
+  }
+  return text;
+}
+
+/// A design read, resolved and planned once, for the in-process benchmark.
+struct Planned {
+  rungs::syntax::SourceFile file;
+  rungs::physics::Circuit circuit;
+  rungs::plan::Plan plan;
+};
+
+/// Only the current size is kept, so that the memory figures of a size do not include the
+/// designs of the sizes before it.
+const Planned& planned(int sections) {
+  static std::unique_ptr<Planned> current;
+  if (current && current->plan.lines.front().sections == sections) return *current;
+  current.reset();
+  auto p = std::make_unique<Planned>();
+  p->file = {"bench_board.rungs", design_text(sections)};
+  rungs::syntax::Diagnostics diagnostics(p->file);
+  const auto description = rungs::syntax::parse_description(diagnostics);
+  p->circuit = rungs::physics::resolve(description, diagnostics);
+  if (!diagnostics.has_errors()) p->plan = rungs::plan::plan_circuit(p->circuit, diagnostics);
+  if (diagnostics.has_errors()) {
+    std::fputs(diagnostics.render().c_str(), stderr);
+    std::abort();
+  }
+  current = std::move(p);
+  return *current;
+}
+
+double peak_rss_mib(const rusage& usage) {
+  return static_cast<double>(usage.ru_maxrss) / 1024.0;
+}
+
+/// write_deck into a file, after parsing, resolving and planning outside the timing.
+void BM_write_deck(benchmark::State& state) {
+  const Planned& p = planned(sections_for(state.range(0)));
+  const std::string hash = rungs::emit::sha256_hex(p.file.text);
+  const fs::path out = scratch() / "in_process.cir";
+  std::uintmax_t bytes = 0;
+  for (auto _ : state) {
+    std::ofstream file(out, std::ios::binary | std::ios::trunc);
+    const std::string error = rungs::emit::write_deck(file, p.circuit, p.plan, {p.file.name, hash},
+                                                      rungs::emit::builtin_templates(), {});
+    file.close();
+    if (!error.empty() || !file) state.SkipWithError("write_deck failed");
+    bytes = fs::file_size(out);
+  }
+  rusage usage{};
+  getrusage(RUSAGE_SELF, &usage);
+  const double elements = static_cast<double>(p.plan.elements);
+  state.counters["elements"] = elements;
+  state.counters["elements_per_second"] =
+      benchmark::Counter(elements, benchmark::Counter::kIsIterationInvariantRate);
+  state.counters["deck_MB"] = static_cast<double>(bytes) / 1e6;
+  // The process's high-water mark so far: the sizes run smallest first, so growth with the
+  // section count would show here as a rising figure.
+  state.counters["peak_rss_MiB"] = peak_rss_mib(usage);
+}
+
+/// Runs `argv` and prints its peak resident memory in KiB. Called as a fresh process
+/// (`emit_bench --peak-rss-of PROGRAM ARGS...`): Linux carries a process's peak into what it
+/// executes, so a child started from the benchmark itself would report the benchmark's peak;
+/// forked from this small process, it reports its own.
+int peak_rss_of(char** argv) {
+  const pid_t pid = fork();
+  if (pid == 0) {
+    execv(argv[0], argv);
+    _exit(127);
+  }
+  int status = 0;
+  rusage usage{};
+  if (pid < 0 || wait4(pid, &status, 0, &usage) != pid) return 126;
+  std::printf("%ld\n", usage.ru_maxrss);
+  return WIFEXITED(status) ? WEXITSTATUS(status) : 125;
+}
+
+/// `rungs emit FILE -o OUT -q` end to end: reading, planning, writing, renaming into place.
+void BM_rungs_emit(benchmark::State& state) {
+  const int sections = sections_for(state.range(0));
+  const fs::path input = scratch() / ("board_" + std::to_string(sections) + ".rungs");
+  const fs::path out = scratch() / "binary.cir";
+  std::ofstream(input, std::ios::binary) << design_text(sections);
+  const std::string command = fmt::format("'{}' --peak-rss-of '{}' emit '{}' -q -o '{}'",
+                                          fs::read_symlink("/proc/self/exe").string(), RUNGS_BINARY,
+                                          input.string(), out.string());
+  double child_peak = 0.0;
+  for (auto _ : state) {
+    FILE* pipe = popen(command.c_str(), "r");
+    long kib = 0;
+    const bool read = pipe && std::fscanf(pipe, "%ld", &kib) == 1;
+    if (!pipe || pclose(pipe) != 0 || !read) {
+      state.SkipWithError("rungs emit failed");
+      break;
+    }
+    child_peak = std::max(child_peak, static_cast<double>(kib) / 1024.0);
+  }
+  const double elements = static_cast<double>(elements_of(sections));
+  state.counters["elements"] = elements;
+  state.counters["elements_per_second"] =
+      benchmark::Counter(elements, benchmark::Counter::kIsIterationInvariantRate);
+  state.counters["deck_MB"] = static_cast<double>(fs::file_size(out)) / 1e6;
+  state.counters["peak_rss_MiB"] = child_peak;  // of the rungs process alone
+}
+
+BENCHMARK(BM_write_deck)
+    ->Arg(100000)
+    ->Arg(1000000)
+    ->Arg(4000000)
+    ->Unit(benchmark::kMillisecond)
+    ->UseRealTime();
+BENCHMARK(BM_rungs_emit)
+    ->Arg(100000)
+    ->Arg(1000000)
+    ->Arg(4000000)
+    ->Unit(benchmark::kMillisecond)
+    ->UseRealTime();
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  if (argc >= 3 && std::string(argv[1]) == "--peak-rss-of") return peak_rss_of(argv + 2);
+  // Scratch decks go to RUNGS_BENCH_DIR if set (a disk, not a RAM-backed /tmp, measures the
+  // file system too), else to a fresh folder under the temporary folder; removed at the end.
+  const char* where = std::getenv("RUNGS_BENCH_DIR");
+  std::string pattern =
+      ((where ? fs::path(where) : fs::temp_directory_path()) / "rungs_bench_XXXXXX").string();
+  if (!mkdtemp(pattern.data())) {
+    std::perror("rungs bench: cannot make a scratch folder");
+    return 1;
+  }
+  scratch() = pattern;
+  benchmark::Initialize(&argc, argv);
+  if (benchmark::ReportUnrecognizedArguments(argc, argv)) return 1;
+  benchmark::RunSpecifiedBenchmarks();
+  benchmark::Shutdown();
+  std::error_code ec;
+  fs::remove_all(scratch(), ec);
+  return 0;
+}
