@@ -1,6 +1,9 @@
 // The command line as a user meets it: subcommands, stdin, exit codes, the lines report.
 #include <catch2/catch.hpp>
 
+#include <cstdlib>
+#include <fstream>
+
 #include "run_command.h"
 
 using rungs::testing::run_rungs;
@@ -79,4 +82,51 @@ TEST_CASE("warnings go to stderr and do not fail the command") {
   CHECK(r.exit_code == 0);
   CHECK(r.err.find("<stdin>:1:13: warning: the far end of line 't' (node 'b') connects to "
                    "nothing else; it is treated as open") == 0);
+}
+
+namespace {
+// Issue 4's background (figures measured outside the project): with pi sections, a matched
+// source, an open end and a 2 % budget, a line whose delay equals the rise time needs 12
+// sections; the common rule's 10 err by more.
+std::string open_line(const std::string& sections) {
+  return "line t a -> b ideal z0=50ohm delay=1ns" + sections +
+         "\ndrive a step 0V to 1V rise=1ns source=50ohm\nload b open\n";
+}
+}  // namespace
+
+TEST_CASE("rungs check: exit 0 for adequate ladders, 1 with a reason a line otherwise") {
+  auto enough = run_rungs("check -", open_line(" sections=12"));
+  CHECK(enough.exit_code == 0);
+  CHECK(enough.out == "design: every line adequate\n");
+  auto short_by_one = run_rungs("check -", open_line(" sections=11"));
+  CHECK(short_by_one.exit_code == 1);
+  CHECK(short_by_one.out.rfind("line t: 11 sections err ", 0) == 0);
+  CHECK(short_by_one.out.find("over its 2 % budget") != std::string::npos);
+  auto rule = run_rungs("check -", open_line(" sections=10"));
+  CHECK(rule.exit_code == 1);
+  CHECK(run_rungs("check -", "line t a -> b coax\n").exit_code == 2);
+}
+
+TEST_CASE("rungs plan --verify finds the smallest adequate count") {
+  auto r = run_rungs("plan --verify --json -", open_line(""));
+  CHECK(r.exit_code == 0);
+  CHECK(r.out.find("\"sections\": 12,") != std::string::npos);
+  CHECK(r.out.find("\"adequate\": true") != std::string::npos);
+  CHECK(r.out.find("\"verified\": true") != std::string::npos);
+}
+
+TEST_CASE("rungs check --netlist: a netlist must be what emit writes now") {
+  const std::string dir = "/tmp/rungs_check_test_" + std::to_string(::getpid());
+  std::system(("mkdir -p " + dir).c_str());
+  std::ofstream(dir + "/l.rungs") << open_line(" sections=12");
+  CHECK(run_rungs("emit -q " + dir + "/l.rungs -o " + dir + "/l.cir").exit_code == 0);
+  CHECK(run_rungs("check " + dir + "/l.rungs --netlist " + dir + "/l.cir").exit_code == 0);
+  std::ofstream(dir + "/l.cir", std::ios::app) << "* edited by hand\n";
+  auto stale = run_rungs("check " + dir + "/l.rungs --netlist " + dir + "/l.cir");
+  CHECK(stale.exit_code == 1);
+  CHECK(stale.out.find("stale") != std::string::npos);
+  auto missing = run_rungs("check " + dir + "/l.rungs --netlist " + dir + "/none.cir");
+  CHECK(missing.exit_code == 1);
+  CHECK(missing.out.find("missing") != std::string::npos);
+  std::system(("rm -rf " + dir).c_str());
 }

@@ -209,7 +209,7 @@ std::size_t print_outcomes(const std::vector<Task>& tasks, const std::vector<Pre
       const PreparedNetlist& netlist = *prepared[task.job].netlist;
       if (!options.quiet && task.output.is_netlist)
         fmt::print(stderr, "rungs: wrote {}: {}\n", task.output.path,
-                   report::plan_summary(netlist.circuit, netlist.plan));
+                   report::plan_summary(netlist.circuit, netlist.plan, verification_of(netlist)));
       else if (!options.quiet)
         fmt::print(stderr, "rungs: wrote {}\n", task.output.path);
       ++count;

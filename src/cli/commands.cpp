@@ -33,17 +33,19 @@ std::optional<physics::Circuit> load_circuit(const syntax::SourceFile& file) {
   return circuit;
 }
 
-int plan_command(const std::string& path, bool json) {
+int plan_command(const std::string& path, bool json, bool verify) {
   NetlistJob job;
   job.source = path;
+  job.verify = verify;
   const Preparation prepared = prepare_netlist(job);
   std::cerr << prepared.messages;
   if (!prepared.netlist) return prepared.exit_code;
   const PreparedNetlist* planned = &*prepared.netlist;
   const sim::PeakEstimate peak = sim::estimate_peak(planned->circuit, planned->plan);
-  std::cout << (json
-                    ? report::plan_json(planned->circuit, planned->plan, peak)
-                    : report::plan_text(planned->circuit, planned->plan, peak, planned->file.name));
+  const plan::Verification* verification = verification_of(*planned);
+  std::cout << (json ? report::plan_json(planned->circuit, planned->plan, peak, verification)
+                     : report::plan_text(planned->circuit, planned->plan, peak, planned->file.name,
+                                         verification));
   std::cout.flush();
   return std::cout ? kExitOk : kExitInternal;
 }
@@ -80,6 +82,20 @@ int run(int argc, char** argv) {
       app.add_subcommand("plan", "Print how each line becomes a ladder; write nothing");
   plan->add_option("FILE", path, "Description file (.rungs), or - for standard input")->required();
   plan->add_flag("--json", json, "Print JSON (SI units) instead of a report");
+  bool verify = false;
+  plan->add_flag("--verify", verify,
+                 "Measure every ladder against the exact line and search the smallest adequate "
+                 "section count (slower; designs with switched loads may not converge)");
+
+  std::string check_netlist;
+  CLI::App* check = app.add_subcommand(
+      "check", "Exit 1 unless every ladder meets its budget (and --netlist is current)");
+  check->add_option("FILE", path, "Description file (.rungs), or - for standard input")
+      ->required();
+  check->add_option("--netlist", check_netlist,
+                    "Also require this netlist to be exactly what rungs emit writes now");
+  check->add_flag("--json", json, "Print JSON instead of one line a failure");
+  check->add_flag("--verify", verify, "Check the counts of the verified planner (emit --verify)");
 
   EmitOptions emit_options;
   CLI::App* emit = app.add_subcommand("emit", "Write the SPICE netlist of a description");
@@ -96,6 +112,8 @@ int run(int argc, char** argv) {
                    "Folder of NAME.tmpl files that replace the built-in deck templates");
   emit->add_flag("--force", emit_options.force, "Overwrite a netlist that rungs did not write");
   emit->add_flag("-q,--quiet", emit_options.quiet, "No summary on standard error");
+  emit->add_flag("--verify", emit_options.verify,
+                 "Plan by the verified planner: ladders measured against the exact line");
   emit->add_option("--depfile", emit_options.depfile,
                    "Also write a make-syntax depfile: the outputs, made from the description "
                    "and templates");
@@ -125,7 +143,8 @@ int run(int argc, char** argv) {
   }
   try {
     if (lines->parsed()) return lines_command(path, json);
-    if (plan->parsed()) return plan_command(path, json);
+    if (plan->parsed()) return plan_command(path, json, verify);
+    if (check->parsed()) return check_command(path, check_netlist, json, verify);
     if (emit->parsed()) return emit_command(path, emit_options);
     if (build->parsed()) return build_command(build_options);
   } catch (const std::exception& e) {

@@ -33,15 +33,15 @@ int emit_command(const std::string& path, const EmitOptions& options) {
                "cannot track standard input or output\n");
     return kExitBadInput;
   }
-  const NetlistJob job{path,
-                       "",
-                       options.output,
-                       options.report,
-                       options.report_json,
-                       options.templates,
-                       options.library,
-                       options.with_ideal,
-                       {}};
+  NetlistJob job;
+  job.source = path;
+  job.output = options.output;
+  job.report = options.report;
+  job.report_json = options.report_json;
+  job.templates = options.templates;
+  job.library = options.library;
+  job.with_ideal = options.with_ideal;
+  job.verify = options.verify;
   const Preparation prepared = prepare_netlist(job);
   std::cerr << prepared.messages;
   if (!prepared.netlist) return prepared.exit_code;
@@ -67,7 +67,7 @@ int emit_command(const std::string& path, const EmitOptions& options) {
     }
   }
   if (!options.quiet)
-    fmt::print(stderr, "rungs: {}\n", report::plan_summary(netlist.circuit, netlist.plan));
+    fmt::print(stderr, "rungs: {}\n", report::plan_summary(netlist.circuit, netlist.plan, verification_of(netlist)));
   return kExitOk;
 }
 

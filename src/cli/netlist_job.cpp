@@ -85,6 +85,10 @@ std::optional<syntax::SourceFile> read_source(const std::string& path, std::stri
   return syntax::SourceFile{path, text.str()};
 }
 
+const plan::Verification* verification_of(const PreparedNetlist& netlist) {
+  return netlist.verification ? &*netlist.verification : nullptr;
+}
+
 Preparation prepare_netlist(const NetlistJob& job) {
   Preparation result;
   auto file = read_source(job.source, result.messages);
@@ -120,6 +124,17 @@ Preparation prepare_netlist(const NetlistJob& job) {
     return result;
   }
   netlist.templates = std::move(*templates);
+  if (job.verify) {
+    try {
+      auto [verified, verification] = plan::plan_verified(netlist.circuit, netlist.plan);
+      netlist.plan = std::move(verified);
+      netlist.verification = std::move(verification);
+    } catch (const std::exception& e) {
+      result.messages += fmt::format("{}: warning: the exact reference cannot check this design "
+                                     "({}); the analytic plan is used\n",
+                                     netlist.file.name, e.what());
+    }
+  }
   if (!job.report.empty() || !job.report_json.empty())
     netlist.peak = sim::estimate_peak(netlist.circuit, netlist.plan);
   result.netlist = std::move(netlist);
@@ -140,12 +155,13 @@ std::vector<JobOutput> job_outputs(const NetlistJob& job, const PreparedNetlist&
   if (!job.report.empty()) {
     outputs.push_back({job.report, false, [&netlist, name](std::ostream& out) {
                          out << report::plan_text(netlist.circuit, netlist.plan, *netlist.peak,
-                                                  name);
+                                                  name, verification_of(netlist));
                        }});
   }
   if (!job.report_json.empty()) {
     outputs.push_back({job.report_json, false, [&netlist](std::ostream& out) {
-                         out << report::plan_json(netlist.circuit, netlist.plan, *netlist.peak);
+                         out << report::plan_json(netlist.circuit, netlist.plan, *netlist.peak,
+                                                  verification_of(netlist));
                        }});
   }
   return outputs;

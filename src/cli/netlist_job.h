@@ -10,6 +10,7 @@
 #include "emit/deck.h"
 #include "physics/circuit.h"
 #include "plan/plan.h"
+#include "plan/verify.h"
 #include "sim/peak.h"
 #include "syntax/source.h"
 
@@ -25,6 +26,7 @@ struct NetlistJob {
   std::string templates;    // optional: a folder of NAME.tmpl overrides
   bool library = false;
   bool with_ideal = false;
+  bool verify = false;  // also run the verified planner against the exact reference
   std::vector<build::DefaultSetting> defaults;  // design-wide settings from a manifest
 };
 
@@ -36,6 +38,7 @@ struct PreparedNetlist {
   emit::TemplateSet templates;
   std::vector<std::string> template_files;  // the override files read
   std::optional<sim::PeakEstimate> peak;    // computed when a report is asked for
+  std::optional<plan::Verification> verification;  // when the job verifies
 };
 
 /// The outcome of prepare_netlist: a netlist, or the exit code of why not.
@@ -45,10 +48,14 @@ struct Preparation {
   int exit_code = 0;
 };
 
-/// Reads the job's description and templates, applies its defaults, resolves, plans, and
-/// checks the templates. Writes nothing and prints nothing: every message is in `messages`.
+/// Reads the job's description and templates, applies its defaults, resolves, plans (with
+/// job.verify, by the verified planner; if the exact reference cannot take the circuit, the
+/// analytic plan stands and a warning says so), and checks the templates. Writes nothing and prints nothing: every message is in `messages`.
 /// Safe to call from several threads at once.
 Preparation prepare_netlist(const NetlistJob& job);
+
+/// The verification of a prepared netlist, or null when it was planned analytically.
+const plan::Verification* verification_of(const PreparedNetlist& netlist);
 
 /// One file a netlist job produces.
 struct JobOutput {

@@ -15,6 +15,7 @@ struct EmitOptions {
   bool with_ideal = false;
   bool force = false;
   bool quiet = false;
+  bool verify = false;  // plan by the verified planner (exact reference)
 };
 
 /// Writes the netlist of `path` (and the reports and depfile asked for); returns the exit code.
@@ -32,5 +33,11 @@ struct BuildOptions {
 
 /// Builds, or with `check` compares, every output of a manifest; returns the exit code.
 int build_command(const BuildOptions& options);
+
+/// `rungs check FILE [--netlist FILE] [--json] [--verify]`: exit 0 when every ladder that emit
+/// writes (with the same --verify) is adequate, measured against the exact reference, and,
+/// with a netlist, when it is exactly what emit would write now; else exit 1 with one line of
+/// reason for each failure.
+int check_command(const std::string& path, const std::string& netlist, bool json, bool verify);
 
 }  // namespace rungs::cli

@@ -69,7 +69,8 @@ std::vector<std::string> cautions(const physics::Circuit& circuit, const sim::Pe
 }
 
 std::string plan_text(const physics::Circuit& circuit, const plan::Plan& plan,
-                      const sim::PeakEstimate& peak, std::string_view source_name) {
+                      const sim::PeakEstimate& peak, std::string_view source_name,
+                      const plan::Verification* verification) {
   std::string out = fmt::format(
       "design {} ({}): {} line{}, tolerance {} of the swing\n"
       "window {} ns, simulator step at most {} ps\n\n",
@@ -78,6 +79,9 @@ std::string plan_text(const physics::Circuit& circuit, const plan::Plan& plan,
   std::vector<std::vector<std::string>> rows = {
       {"line", "model", "Z0/ohm", "delay/ns", "shape", "sections", "L/nH", "C/pF", "fc/GHz",
        "knee/GHz", "fc/knee", "predicted", "rule", "rule predicted", "elements"}};
+  if (verification) {
+    for (const char* heading : {"error", "rule error", "adequate"}) rows.front().push_back(heading);
+  }
   for (std::size_t i = 0; i < circuit.lines.size(); ++i) {
     const physics::Line& line = circuit.lines[i];
     const plan::LinePlan& lp = plan.lines[i];
@@ -88,10 +92,28 @@ std::string plan_text(const physics::Circuit& circuit, const plan::Plan& plan,
                     g4(lp.bandwidth, 1e9), g4(lp.cutoff / lp.bandwidth, 1),
                     percent(lp.predicted_error), fmt::format("{}", lp.rule_sections),
                     percent(lp.rule_predicted_error), fmt::format("{}", lp.elements)});
+    if (verification) {
+      const plan::LineVerdict& v = verification->lines[i];
+      rows.back().push_back(percent(v.error));
+      rows.back().push_back(percent(v.rule_error));
+      rows.back().push_back(v.adequate ? "yes" : "NO");
+    }
   }
   out += table(rows);
   out += fmt::format("\ntotal ladder elements: {}\n", plan.elements);
   out += "predicted errors are the analytic estimate at the edge's knee frequency (0.5/rise)\n";
+  if (verification)
+    out += fmt::format("errors are measured against the exact line (frequency-domain reference, "
+                       "accuracy {} of the swing): the largest difference at any line end over "
+                       "the window, over the drive's swing\n",
+                       percent(verification->accuracy));
+  for (std::size_t i = 0; i < circuit.lines.size(); ++i) {
+    if (plan.lines[i].sections > kIdealLineAdvice)
+      out += fmt::format("advice: line {} needs {} sections; a ladder this long is slow to "
+                         "simulate, and the simulator's ideal line (see --with-ideal) may serve "
+                         "better where losses do not matter\n",
+                         circuit.lines[i].name, plan.lines[i].sections);
+  }
   if (peak.computed)
     out += fmt::format("peak: the largest line-end excursion is {:.3g} of the drive's swing; "
                        "highest voltage at most {:.4g} V, at node {} (lossless analysis)\n",
@@ -103,7 +125,7 @@ std::string plan_text(const physics::Circuit& circuit, const plan::Plan& plan,
 }
 
 std::string plan_json(const physics::Circuit& circuit, const plan::Plan& plan,
-                      const sim::PeakEstimate& peak) {
+                      const sim::PeakEstimate& peak, const plan::Verification* verification) {
   JsonWriter json;
   json.begin_object()
       .key("version").value(1)
@@ -128,11 +150,21 @@ std::string plan_json(const physics::Circuit& circuit, const plan::Plan& plan,
         .key("bandwidth").value(lp.bandwidth)
         .key("predicted_error").value(lp.predicted_error)
         .key("rule_sections").value(lp.rule_sections)
-        .key("rule_predicted_error").value(lp.rule_predicted_error)
-        .end_object();
+        .key("rule_predicted_error").value(lp.rule_predicted_error);
+    if (verification) {
+      const plan::LineVerdict& v = verification->lines[i];
+      json.key("error").value(v.error)
+          .key("delay_error").value(v.delay_error)
+          .key("overshoot_error").value(v.overshoot_error)
+          .key("rule_error").value(v.rule_error)
+          .key("adequate").value(v.adequate);
+    }
+    json.end_object();
   }
   json.end_array();
   json.key("elements").value(plan.elements);
+  json.key("verified").value(verification != nullptr);
+  if (verification) json.key("accuracy").value(verification->accuracy);
   auto maybe = [&](double v) { return peak.computed ? std::optional<double>(v) : std::nullopt; };
   json.key("peak_ratio").value(maybe(peak.ratio));
   json.key("peak_voltage").value(maybe(peak.voltage));
@@ -142,12 +174,32 @@ std::string plan_json(const physics::Circuit& circuit, const plan::Plan& plan,
   return json.str();
 }
 
-std::string plan_summary(const physics::Circuit& circuit, const plan::Plan& plan) {
+std::string plan_summary(const physics::Circuit& circuit, const plan::Plan& plan,
+                         const plan::Verification* verification) {
   double worst = 0.0;
-  for (const plan::LinePlan& lp : plan.lines) worst = std::max(worst, lp.predicted_error);
-  return fmt::format("{}: {} line{}, {} ladder elements, predicted error at most {} (budget {})",
+  if (verification) {
+    for (const plan::LineVerdict& v : verification->lines) worst = std::max(worst, v.error);
+  } else {
+    for (const plan::LinePlan& lp : plan.lines) worst = std::max(worst, lp.predicted_error);
+  }
+  return fmt::format("{}: {} line{}, {} ladder elements, {} error at most {} (budget {})",
                      circuit.name, circuit.lines.size(), circuit.lines.size() == 1 ? "" : "s",
-                     plan.elements, percent(worst), percent(circuit.settings.tolerance));
+                     plan.elements, verification ? "measured" : "predicted", percent(worst),
+                     percent(circuit.settings.tolerance));
+}
+
+std::vector<std::string> inadequate_lines(const physics::Circuit& circuit, const plan::Plan& plan,
+                                          const plan::Verification& verification) {
+  std::vector<std::string> out;
+  for (std::size_t i = 0; i < circuit.lines.size(); ++i) {
+    const plan::LineVerdict& v = verification.lines[i];
+    if (v.adequate) continue;
+    out.push_back(fmt::format("line {}: {} sections err {} of the swing (accuracy {}), over its {} "
+                              "budget",
+                              circuit.lines[i].name, plan.lines[i].sections, percent(v.error),
+                              percent(verification.accuracy), percent(plan.lines[i].tolerance)));
+  }
+  return out;
 }
 
 }  // namespace rungs::report

@@ -5,6 +5,7 @@
 
 #include "physics/circuit.h"
 #include "plan/plan.h"
+#include "plan/verify.h"
 #include "sim/peak.h"
 
 namespace rungs::report {
@@ -16,18 +17,34 @@ std::vector<std::string> cautions(const physics::Circuit& circuit, const sim::Pe
 /// The report for people: one row per line (model, Z0, delay, shape, sections, per-section
 /// L and C, cutoff, knee, their ratio, predicted error, the common rule's sections and its
 /// predicted error, elements), then totals, the peak and the cautions.
+/// With a verification, each row also shows the measured error, the rule's measured error and
+/// whether the line is adequate, and lines past kIdealLineAdvice sections get advice.
 std::string plan_text(const physics::Circuit& circuit, const plan::Plan& plan,
-                      const sim::PeakEstimate& peak, std::string_view source_name);
+                      const sim::PeakEstimate& peak, std::string_view source_name,
+                      const plan::Verification* verification = nullptr);
 
 /// The report for tools, SI units:
 /// `{"version": 1, "design", "window", "time_step", "lines": [{"name", "model", "z0",
 /// "delay", "shape", "sections", "section_l", "section_c", "elements", "cutoff",
 /// "bandwidth", "predicted_error", "rule_sections", "rule_predicted_error"}], "elements",
-/// "peak_ratio", "peak_voltage", "cautions"}`; peak values are null when not computed.
+/// "peak_ratio", "peak_voltage", "cautions"}`; peak values are null when not computed. With a
+/// verification each line also has "error", "delay_error" (s), "overshoot_error",
+/// "rule_error" and "adequate", and the design "verified": true and "accuracy".
 std::string plan_json(const physics::Circuit& circuit, const plan::Plan& plan,
-                      const sim::PeakEstimate& peak);
+                      const sim::PeakEstimate& peak,
+                      const plan::Verification* verification = nullptr);
+
+/// Above this many sections a ladder is slow to simulate, and the report suggests the
+/// simulator's own ideal line instead.
+inline constexpr int kIdealLineAdvice = 5000;
+
+/// One line per inadequate line, for `rungs check`: "line NAME: N sections err X % of the
+/// swing, over its Y % budget".
+std::vector<std::string> inadequate_lines(const physics::Circuit& circuit, const plan::Plan& plan,
+                                          const plan::Verification& verification);
 
 /// One line for stderr after emitting.
-std::string plan_summary(const physics::Circuit& circuit, const plan::Plan& plan);
+std::string plan_summary(const physics::Circuit& circuit, const plan::Plan& plan,
+                         const plan::Verification* verification = nullptr);
 
 }  // namespace rungs::report
