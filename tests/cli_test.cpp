@@ -3,6 +3,7 @@
 
 #include <cstdlib>
 #include <fstream>
+#include <iterator>
 
 #include "run_command.h"
 
@@ -128,5 +129,23 @@ TEST_CASE("rungs check --netlist: a netlist must be what emit writes now") {
   auto missing = run_rungs("check " + dir + "/l.rungs --netlist " + dir + "/none.cir");
   CHECK(missing.exit_code == 1);
   CHECK(missing.out.find("missing") != std::string::npos);
+  std::system(("rm -rf " + dir).c_str());
+}
+
+TEST_CASE("plan with a plot folder writes a waveform chart for each load and an error chart for each line") {
+  const std::string dir = "/tmp/rungs_plot_test_" + std::to_string(::getpid());
+  auto r = run_rungs("plan --verify --plot " + dir + " -", open_line(""));
+  CHECK(r.exit_code == 0);
+  for (const char* name : {"/waveform_b.svg", "/error_t.svg"}) {
+    std::ifstream in(dir + name);
+    std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    INFO(name);
+    CHECK(text.rfind("<svg xmlns=\"http://www.w3.org/2000/svg\"", 0) == 0);
+    CHECK(text.find("</svg>") != std::string::npos);
+  }
+  std::ifstream error_chart(dir + "/error_t.svg");
+  std::string text((std::istreambuf_iterator<char>(error_chart)), std::istreambuf_iterator<char>());
+  CHECK(text.find("chosen N = 12") != std::string::npos);
+  CHECK(text.find("budget 2 %") != std::string::npos);
   std::system(("rm -rf " + dir).c_str());
 }

@@ -14,7 +14,7 @@
 namespace rungs::cli {
 
 int check_command(const std::string& path, const std::string& netlist_path, bool json,
-                  bool verify) {
+                  bool verify, const std::string& plots) {
   // The counts checked are the ones emit writes with the same planner option, so that a
   // passing check vouches for the committed netlist itself.
   NetlistJob job;
@@ -36,6 +36,12 @@ int check_command(const std::string& path, const std::string& netlist_path, bool
   }
   std::vector<std::string> reasons =
       report::inadequate_lines(netlist.circuit, netlist.plan, *netlist.verification);
+  if (!plots.empty()) {
+    if (std::string error = write_plots(plots, netlist); !error.empty()) {
+      fmt::print(stderr, "rungs: {}\n", error);
+      return kExitInternal;
+    }
+  }
   if (!netlist_path.empty()) {
     const Comparison compared =
         compare_with_file(netlist_path, job_outputs(job, netlist).front().write, build::kHeadBytes);

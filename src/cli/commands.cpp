@@ -33,7 +33,7 @@ std::optional<physics::Circuit> load_circuit(const syntax::SourceFile& file) {
   return circuit;
 }
 
-int plan_command(const std::string& path, bool json, bool verify) {
+int plan_command(const std::string& path, bool json, bool verify, const std::string& plots) {
   NetlistJob job;
   job.source = path;
   job.verify = verify;
@@ -43,6 +43,12 @@ int plan_command(const std::string& path, bool json, bool verify) {
   const PreparedNetlist* planned = &*prepared.netlist;
   const sim::PeakEstimate peak = sim::estimate_peak(planned->circuit, planned->plan);
   const plan::Verification* verification = verification_of(*planned);
+  if (!plots.empty()) {
+    if (std::string error = write_plots(plots, *planned); !error.empty()) {
+      fmt::print(stderr, "rungs: {}\n", error);
+      return kExitInternal;
+    }
+  }
   std::cout << (json ? report::plan_json(planned->circuit, planned->plan, peak, verification)
                      : report::plan_text(planned->circuit, planned->plan, peak, planned->file.name,
                                          verification));
@@ -96,6 +102,11 @@ int run(int argc, char** argv) {
                     "Also require this netlist to be exactly what rungs emit writes now");
   check->add_flag("--json", json, "Print JSON instead of one line a failure");
   check->add_flag("--verify", verify, "Check the counts of the verified planner (emit --verify)");
+  std::string plots;
+  plan->add_option("--plot", plots,
+                   "Write SVG charts here: waveforms at each load, error against sections");
+  check->add_option("--plot", plots,
+                    "Write SVG charts here: waveforms at each load, error against sections");
 
   EmitOptions emit_options;
   CLI::App* emit = app.add_subcommand("emit", "Write the SPICE netlist of a description");
@@ -143,8 +154,8 @@ int run(int argc, char** argv) {
   }
   try {
     if (lines->parsed()) return lines_command(path, json);
-    if (plan->parsed()) return plan_command(path, json, verify);
-    if (check->parsed()) return check_command(path, check_netlist, json, verify);
+    if (plan->parsed()) return plan_command(path, json, verify, plots);
+    if (check->parsed()) return check_command(path, check_netlist, json, verify, plots);
     if (emit->parsed()) return emit_command(path, emit_options);
     if (build->parsed()) return build_command(build_options);
   } catch (const std::exception& e) {

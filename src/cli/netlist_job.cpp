@@ -1,5 +1,6 @@
 // One description through the pipeline: read, defaults, resolve, plan, templates, outputs.
 #include "cli/netlist_job.h"
+#include "cli/output_file.h"
 
 #include <algorithm>
 #include <cerrno>
@@ -15,6 +16,7 @@
 #include "emit/sha256.h"
 #include "physics/resolve.h"
 #include "report/plan_report.h"
+#include "report/plots.h"
 #include "syntax/parser.h"
 #include "syntax/suggest.h"
 
@@ -139,6 +141,25 @@ Preparation prepare_netlist(const NetlistJob& job) {
     netlist.peak = sim::estimate_peak(netlist.circuit, netlist.plan);
   result.netlist = std::move(netlist);
   return result;
+}
+
+std::string write_plots(const std::string& folder, const PreparedNetlist& netlist) {
+  std::error_code ec;
+  std::filesystem::create_directories(folder, ec);
+  if (ec) return fmt::format("cannot make the folder '{}': {}", folder, ec.message());
+  std::vector<report::PlotFile> plots;
+  try {
+    plots = report::plan_plots(netlist.circuit, netlist.plan);
+  } catch (const std::exception& e) {
+    return fmt::format("cannot draw the charts: {}", e.what());
+  }
+  for (const report::PlotFile& plot : plots) {
+    const std::string path = (std::filesystem::path(folder) / plot.name).string();
+    std::string error = write_atomically(
+        path, [&](std::ostream& out) { out << plot.svg; }, /*protect_foreign=*/false, true);
+    if (!error.empty()) return error;
+  }
+  return "";
 }
 
 std::vector<JobOutput> job_outputs(const NetlistJob& job, const PreparedNetlist& netlist) {

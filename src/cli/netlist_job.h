@@ -57,6 +57,10 @@ Preparation prepare_netlist(const NetlistJob& job);
 /// The verification of a prepared netlist, or null when it was planned analytically.
 const plan::Verification* verification_of(const PreparedNetlist& netlist);
 
+/// Writes the plan's charts (report/plots.h) as SVG files into `folder`, creating it. Returns
+/// an error message, or empty.
+std::string write_plots(const std::string& folder, const PreparedNetlist& netlist);
+
 /// One file a netlist job produces.
 struct JobOutput {
   std::string path;

@@ -38,6 +38,8 @@ int build_command(const BuildOptions& options);
 /// writes (with the same --verify) is adequate, measured against the exact reference, and,
 /// with a netlist, when it is exactly what emit would write now; else exit 1 with one line of
 /// reason for each failure.
-int check_command(const std::string& path, const std::string& netlist, bool json, bool verify);
+/// With `plots`, also writes the SVG charts into that folder.
+int check_command(const std::string& path, const std::string& netlist, bool json, bool verify,
+                  const std::string& plots);
 
 }  // namespace rungs::cli

@@ -14,12 +14,8 @@
 
 namespace rungs::plan {
 
-namespace {
-
 using sim::LadderSpec;
 
-/// The reference's options for a plan: a twentieth of the smallest tolerance (the reference's
-/// own estimate is about its error, not a bound; frequency_reference.h), over the plan's window.
 sim::ReferenceOptions reference_options(const Plan& plan) {
   double tolerance = std::numeric_limits<double>::infinity();
   for (const LinePlan& lp : plan.lines)
@@ -30,6 +26,15 @@ sim::ReferenceOptions reference_options(const Plan& plan) {
   o.target = tolerance / 20.0;
   return o;
 }
+
+std::vector<LadderSpec> ladder_specs(const Plan& plan, bool rule) {
+  std::vector<LadderSpec> out;
+  for (const LinePlan& lp : plan.lines)
+    out.push_back(LadderSpec{std::max(1, rule ? lp.rule_sections : lp.sections), lp.shape});
+  return out;
+}
+
+namespace {
 
 bool meets(double error, double accuracy, double tolerance) {
   return error + accuracy <= tolerance;
@@ -75,18 +80,12 @@ Measured measure_partial(const physics::Circuit& circuit, const sim::Response& e
   return m;
 }
 
-std::vector<LadderSpec> specs(const Plan& plan, bool rule) {
-  std::vector<LadderSpec> out;
-  for (const LinePlan& lp : plan.lines)
-    out.push_back(LadderSpec{std::max(1, rule ? lp.rule_sections : lp.sections), lp.shape});
-  return out;
-}
 
 Verification verify_against(const physics::Circuit& circuit, const Plan& plan,
                             const sim::Response& exact, const sim::ReferenceOptions& o,
                             sim::ResponseWorkspace& ws) {
-  const sim::LadderError planned = sim::measure_ladder_error(circuit, exact, specs(plan, false), o, &ws);
-  const sim::LadderError rule = sim::measure_ladder_error(circuit, exact, specs(plan, true), o, &ws);
+  const sim::LadderError planned = sim::measure_ladder_error(circuit, exact, ladder_specs(plan, false), o, &ws);
+  const sim::LadderError rule = sim::measure_ladder_error(circuit, exact, ladder_specs(plan, true), o, &ws);
   Verification v;
   v.accuracy = planned.accuracy;
   v.reference_within_target = exact.accuracy.within_target;

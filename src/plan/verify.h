@@ -7,6 +7,8 @@
 
 #include "physics/circuit.h"
 #include "plan/plan.h"
+#include "sim/frequency_reference.h"
+#include "sim/two_port.h"
 
 namespace rungs::plan {
 
@@ -50,6 +52,14 @@ Verification verify_plan(const physics::Circuit& circuit, const Plan& plan);
 /// and its verification.
 std::pair<Plan, Verification> plan_verified(const physics::Circuit& circuit,
                                             const Plan& analytic);
+
+/// The exact reference's options for a plan: its window, and a target of a twentieth of the
+/// smallest line tolerance (the reference's estimate is about its error, not a bound).
+sim::ReferenceOptions reference_options(const Plan& plan);
+
+/// The plan's ladders as the frequency-domain solution takes them; with `rule`, at the common
+/// rule's counts.
+std::vector<sim::LadderSpec> ladder_specs(const Plan& plan, bool rule = false);
 
 /// Past this many sections the search stops doubling; a line that still fails keeps it.
 inline constexpr int kVerifiedMaxSections = 1'000'000;
