@@ -7,6 +7,7 @@
 #include "cli/commands.h"
 #include "cli/netlist_job.h"
 #include "cli/output_file.h"
+#include "cli/progress.h"
 #include "cli/subcommands.h"
 #include "report/json_writer.h"
 #include "report/plan_report.h"
@@ -27,6 +28,7 @@ int check_command(const std::string& path, const std::string& netlist_path, bool
   PreparedNetlist& netlist = *prepared.netlist;
   if (!netlist.verification) {
     try {
+      const ProgressNote note(fmt::format("checking the ladders of {}", netlist.circuit.name));
       netlist.verification = plan::verify_plan(netlist.circuit, netlist.plan);
     } catch (const std::exception& e) {
       fmt::print(stderr, "rungs: {}: the exact reference cannot check this design: {}\n", path,

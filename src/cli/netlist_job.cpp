@@ -1,6 +1,7 @@
 // One description through the pipeline: read, defaults, resolve, plan, templates, outputs.
 #include "cli/netlist_job.h"
 #include "cli/output_file.h"
+#include "cli/progress.h"
 
 #include <algorithm>
 #include <cerrno>
@@ -128,6 +129,7 @@ Preparation prepare_netlist(const NetlistJob& job) {
   netlist.templates = std::move(*templates);
   if (job.verify) {
     try {
+      const ProgressNote note(fmt::format("verifying the ladders of {}", netlist.circuit.name));
       auto [verified, verification] = plan::plan_verified(netlist.circuit, netlist.plan);
       netlist.plan = std::move(verified);
       netlist.verification = std::move(verification);
@@ -149,6 +151,7 @@ std::string write_plots(const std::string& folder, const PreparedNetlist& netlis
   if (ec) return fmt::format("cannot make the folder '{}': {}", folder, ec.message());
   std::vector<report::PlotFile> plots;
   try {
+    const ProgressNote note("drawing the charts");
     plots = report::plan_plots(netlist.circuit, netlist.plan);
   } catch (const std::exception& e) {
     return fmt::format("cannot draw the charts: {}", e.what());
