@@ -104,6 +104,19 @@ long long ladder_elements(int sections, physics::Shape shape, bool has_r, bool h
   return series * (has_r ? 2 : 1) + shunt * (has_g ? 2 : 1);
 }
 
+void set_sections(const physics::Line& line, LinePlan& lp, int sections) {
+  const double n = sections;
+  lp.sections = sections;
+  lp.predicted_error = estimate_ladder_error(line.delay, lp.rise, sections, lp.shape).total();
+  lp.section_l = line.z0 * line.delay / n;
+  lp.section_c = line.delay / (line.z0 * n);
+  const double length = line.length.value_or(0.0);
+  lp.section_r = line.per_length.r * length / n;
+  lp.section_g = line.per_length.g * length / n;
+  lp.cutoff = section_cutoff(line.delay / n);
+  lp.elements = ladder_elements(sections, lp.shape, lp.section_r > 0.0, lp.section_g > 0.0);
+}
+
 Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
   Plan plan;
   Components parts(circuit);
@@ -158,23 +171,15 @@ Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
       continue;
     }
     lp.fixed = line.sections.has_value();
-    lp.sections = line.sections.value_or(
-        analytic_sections(line.delay, lp.rise, lp.tolerance, lp.shape));
+    set_sections(line, lp,
+                 line.sections.value_or(
+                     analytic_sections(line.delay, lp.rise, lp.tolerance, lp.shape)));
     lp.rule_sections = rule_of_thumb_sections(line.delay, lp.rise);
-    lp.predicted_error = estimate_ladder_error(line.delay, lp.rise, lp.sections, lp.shape).total();
     lp.rule_predicted_error =
         estimate_ladder_error(line.delay, lp.rise, lp.rule_sections, lp.shape).total();
-    const double n = lp.sections;
-    lp.section_l = line.z0 * line.delay / n;
-    lp.section_c = line.delay / (line.z0 * n);
-    const double length = line.length.value_or(0.0);
-    lp.section_r = line.per_length.r * length / n;
-    lp.section_g = line.per_length.g * length / n;
-    lp.cutoff = section_cutoff(line.delay / n);
     lp.bandwidth = knee_frequency(lp.rise);
-    lp.elements = ladder_elements(lp.sections, lp.shape, lp.section_r > 0.0, lp.section_g > 0.0);
     plan.elements += lp.elements;
-    shortest_section = std::min(shortest_section, line.delay / n);
+    shortest_section = std::min(shortest_section, line.delay / lp.sections);
     plan.lines.push_back(lp);
   }
 

@@ -40,6 +40,10 @@ struct Plan {
 /// series or shunt element at the ends (the halves are not merged there).
 long long ladder_elements(int sections, physics::Shape shape, bool has_r, bool has_g);
 
+/// Sets a line's section count and every figure that follows from it: the section values,
+/// cutoff, predicted error and element count (rise, shape and tolerance must be set).
+void set_sections(const physics::Line& line, LinePlan& plan, int sections);
+
 /// Plans every line: the rise time that reaches it (its own rise=, else the fastest drive
 /// in its connected part of the circuit, else `set rise`; a line with none is an error),
 /// its tolerance and shape (own option, else the design's), and the section count from

@@ -107,19 +107,6 @@ Verification verify_against(const physics::Circuit& circuit, const Plan& plan,
   return v;
 }
 
-/// Sets a line's count and every figure that follows from it, as plan_circuit does.
-void set_sections(const physics::Line& line, LinePlan& lp, int n) {
-  lp.sections = n;
-  lp.predicted_error = estimate_ladder_error(line.delay, lp.rise, n, lp.shape).total();
-  lp.section_l = line.z0 * line.delay / n;
-  lp.section_c = line.delay / (line.z0 * n);
-  const double length = line.length.value_or(0.0);
-  lp.section_r = line.per_length.r * length / n;
-  lp.section_g = line.per_length.g * length / n;
-  lp.cutoff = section_cutoff(line.delay / n);
-  lp.elements = ladder_elements(n, lp.shape, lp.section_r > 0.0, lp.section_g > 0.0);
-}
-
 /// The smallest passing N of one line with the others exact (see plan_verified).
 int search_line(const physics::Circuit& circuit, const sim::Response& exact,
                 const sim::ReferenceOptions& o, sim::ResponseWorkspace& ws, std::size_t k,
