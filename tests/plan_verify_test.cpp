@@ -2,6 +2,8 @@
 // exact reference.
 #include <catch2/catch.hpp>
 
+#include "circuit_builders.h"
+
 #include <string>
 
 #include "physics/circuit.h"
@@ -25,29 +27,18 @@ using rungs::plan::plan_verified;
 using rungs::plan::Verification;
 using rungs::plan::verify_plan;
 
+using rungs::testing::ideal_line;
+using rungs::testing::step_drive;
+
 namespace {
+
+
+/// A 0 to 1 V step behind `source` ohms at node "a", with a 10-90 % edge of `rise`.
+Drive drive(double rise, double source) { return step_drive("a", 0.0, 1.0, source, rise); }
 
 Line line(const std::string& name, const std::string& near, const std::string& far, double z0,
           double delay) {
-  Line l;
-  l.name = name;
-  l.near = near;
-  l.far = far;
-  l.model = std::string("ideal");
-  l.z0 = z0;
-  l.delay = delay;
-  return l;
-}
-
-/// A 0 to 1 V step behind `source` ohms at node "a", with a 10-90 % edge of `rise`.
-Drive drive(double rise, double source) {
-  Drive d;
-  d.node = std::string("a");
-  d.kind = WaveKind::step;
-  d.high = 1.0;
-  d.rise = rise;
-  d.source_resistance = source;
-  return d;
+  return ideal_line(name, near, far, z0, delay);
 }
 
 Plan analytic_plan(const Circuit& c) {

@@ -1,6 +1,8 @@
 // The method-of-characteristics reference against textbook transients of lossless lines.
 #include <catch2/catch.hpp>
 
+#include "circuit_builders.h"
+
 #include <algorithm>
 #include <cmath>
 #include <stdexcept>
@@ -24,48 +26,27 @@ using rungs::sim::find_node;
 using rungs::sim::simulate_characteristics;
 using rungs::sim::Waveforms;
 
+using rungs::testing::element;
+using rungs::testing::ideal_line;
+using rungs::testing::load;
+using rungs::testing::step_drive;
+
 namespace {
 
 constexpr double kDt = 1e-12;    // 1 ps steps: every delay below is a whole number of them
 constexpr double kRise = 8e-12;  // 10-90 %: a 10 ps ramp, fast beside the 1 ns lines
 
+
 Line line(const std::string& name, const std::string& near, const std::string& far, double z0,
           double delay) {
-  Line l;
-  l.name = name;
-  l.near = near;
-  l.far = far;
-  l.model = "ideal";
-  l.z0 = z0;
-  l.delay = delay;
-  return l;
+  return ideal_line(name, near, far, z0, delay);
 }
 
 Drive step(const std::string& node, double volts, double source, double rise = kRise) {
-  Drive d;
-  d.node = node;
-  d.kind = WaveKind::step;
-  d.low = 0.0;
-  d.high = volts;
-  d.rise = rise;
-  d.source_resistance = source;
-  return d;
+  return step_drive(node, 0.0, volts, source, rise);
 }
 
-LoadNetwork element(ElementKind kind, double value) {
-  LoadNetwork n;
-  n.kind = NetworkKind::single;
-  n.element = kind;
-  n.value = value;
-  return n;
-}
 
-Load load(const std::string& node, LoadNetwork network) {
-  Load l;
-  l.node = node;
-  l.network = std::move(network);
-  return l;
-}
 
 /// The sample of `node` at time t (s), which must fall on the grid of kDt.
 double at(const Waveforms& w, const std::string& node, double t) {

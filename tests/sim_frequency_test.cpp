@@ -2,6 +2,8 @@
 // closed-form lossy lines.
 #include <catch2/catch.hpp>
 
+#include "circuit_builders.h"
+
 #include <algorithm>
 #include <cmath>
 #include <stdexcept>
@@ -36,56 +38,28 @@ using rungs::sim::Response;
 using rungs::sim::simulate_characteristics;
 using rungs::sim::Waveforms;
 
-namespace {
+using rungs::testing::combine;
+using rungs::testing::element;
+using rungs::testing::load;
 
-constexpr double kDt = 1e-12;  // the characteristics run's step: every delay is a multiple
+namespace {
 
 Line line(const std::string& name, const std::string& near, const std::string& far, double z0,
           double delay) {
-  Line l;
-  l.name = name;
-  l.near = near;
-  l.far = far;
-  l.model = "ideal";
-  l.z0 = z0;
-  l.delay = delay;
-  return l;
+  return rungs::testing::ideal_line(name, near, far, z0, delay);
 }
 
 Drive step(const std::string& node, double low, double high, double source, double rise,
            double at = 0.0) {
-  Drive d;
-  d.node = node;
-  d.kind = WaveKind::step;
-  d.low = low;
-  d.high = high;
-  d.rise = rise;
-  d.at = at;
-  d.source_resistance = source;
-  return d;
+  return rungs::testing::step_drive(node, low, high, source, rise, at);
 }
 
-LoadNetwork element(ElementKind kind, double value) {
-  LoadNetwork n;
-  n.kind = NetworkKind::single;
-  n.element = kind;
-  n.value = value;
-  return n;
-}
+constexpr double kDt = 1e-12;  // the characteristics run's step: every delay is a multiple
 
-LoadNetwork combine(NetworkKind kind, std::vector<LoadNetwork> parts) {
-  LoadNetwork n;
-  n.kind = kind;
-  n.parts = std::move(parts);
-  return n;
-}
 
-Load load(const std::string& node, LoadNetwork network) {
-  Load l;
-  l.node = node;
-  l.network = std::move(network);
-  return l;
-}
+
+
+
 
 ReferenceOptions options(double window, double target = 5e-4) {
   ReferenceOptions o;

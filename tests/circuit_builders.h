@@ -1,0 +1,65 @@
+// Test helper: small circuits built directly as physics values, without description text.
+#pragma once
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "physics/circuit.h"
+
+namespace rungs::testing {
+
+/// An ideal line of impedance z0 (ohm) and one-way delay (s) between two nodes.
+inline physics::Line ideal_line(const std::string& name, const std::string& near,
+                                const std::string& far, double z0, double delay) {
+  physics::Line l;
+  l.name = name;
+  l.near = near;
+  l.far = far;
+  l.model = "ideal";
+  l.z0 = z0;
+  l.delay = delay;
+  return l;
+}
+
+/// A step from `low` to `high` volts behind `source` ohms, its 10-90 % edge `rise` (s)
+/// starting at `at` (s).
+inline physics::Drive step_drive(const std::string& node, double low, double high, double source,
+                                 double rise, double at = 0.0) {
+  physics::Drive d;
+  d.node = node;
+  d.kind = physics::WaveKind::step;
+  d.low = low;
+  d.high = high;
+  d.rise = rise;
+  d.at = at;
+  d.source_resistance = source;
+  return d;
+}
+
+/// One R, C or L of `value` (ohm, F, H).
+inline physics::LoadNetwork element(physics::ElementKind kind, double value) {
+  physics::LoadNetwork n;
+  n.kind = physics::NetworkKind::single;
+  n.element = kind;
+  n.value = value;
+  return n;
+}
+
+/// Parts joined in series or in parallel.
+inline physics::LoadNetwork combine(physics::NetworkKind kind,
+                                    std::vector<physics::LoadNetwork> parts) {
+  physics::LoadNetwork n;
+  n.kind = kind;
+  n.parts = std::move(parts);
+  return n;
+}
+
+/// A load from `node` to ground, connected from t = 0.
+inline physics::Load load(const std::string& node, physics::LoadNetwork network) {
+  physics::Load l;
+  l.node = node;
+  l.network = std::move(network);
+  return l;
+}
+
+}  // namespace rungs::testing
