@@ -20,6 +20,8 @@
 #include <utility>
 #include <vector>
 
+#include <Eigen/Dense>
+
 #include <fmt/format.h>
 
 #include "physics/resolve.h"
@@ -42,49 +44,26 @@ constexpr double kMaxSamples = 5e7;
 // Times that should land on the grid carry rounding; this much of a step is forgiven.
 constexpr double kGridSlack = 1e-9;
 
-/// LU factors of a small dense matrix with partial pivoting, for the nodal equations.
+/// LU factors of a small dense matrix (row-major values) with partial pivoting, for the
+/// nodal equations; Eigen does the work.
 class DenseLu {
  public:
-  void factor(std::vector<double> a, std::size_t n);
-  void solve(std::vector<double>& b) const;
+  void factor(const std::vector<double>& a, std::size_t n) {
+    const auto rows = static_cast<Eigen::Index>(n);
+    lu_.compute(Eigen::Map<const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic,
+                                               Eigen::RowMajor>>(a.data(), rows, rows));
+    // Every row holds a conductance to ground or a forced voltage, so a zero pivot is a bug.
+    if ((lu_.matrixLU().diagonal().array() == 0.0).any())
+      throw std::logic_error("the nodal matrix is singular");
+  }
+  void solve(std::vector<double>& b) const {
+    Eigen::Map<Eigen::VectorXd> x(b.data(), static_cast<Eigen::Index>(b.size()));
+    x = lu_.solve(Eigen::VectorXd(x));
+  }
 
  private:
-  std::size_t n_ = 0;
-  std::vector<double> lu_;
-  std::vector<std::size_t> pivot_;
+  Eigen::PartialPivLU<Eigen::MatrixXd> lu_;
 };
-
-void DenseLu::factor(std::vector<double> a, std::size_t n) {
-  n_ = n;
-  lu_ = std::move(a);
-  pivot_.assign(n, 0);
-  for (std::size_t k = 0; k < n; ++k) {
-    std::size_t p = k;
-    for (std::size_t r = k + 1; r < n; ++r)
-      if (std::abs(lu_[r * n + k]) > std::abs(lu_[p * n + k])) p = r;
-    // Every row holds a conductance to ground or a forced voltage, so a zero pivot is a bug.
-    if (lu_[p * n + k] == 0.0) throw std::logic_error("the nodal matrix is singular");
-    pivot_[k] = p;
-    if (p != k)
-      for (std::size_t c = 0; c < n; ++c) std::swap(lu_[k * n + c], lu_[p * n + c]);
-    for (std::size_t r = k + 1; r < n; ++r) {
-      const double f = lu_[r * n + k] /= lu_[k * n + k];
-      if (f == 0.0) continue;
-      for (std::size_t c = k + 1; c < n; ++c) lu_[r * n + c] -= f * lu_[k * n + c];
-    }
-  }
-}
-
-void DenseLu::solve(std::vector<double>& b) const {
-  const std::size_t n = n_;
-  for (std::size_t k = 0; k < n; ++k) std::swap(b[k], b[pivot_[k]]);
-  for (std::size_t r = 1; r < n; ++r)
-    for (std::size_t c = 0; c < r; ++c) b[r] -= lu_[r * n + c] * b[c];
-  for (std::size_t r = n; r-- > 0;) {
-    for (std::size_t c = r + 1; c < n; ++c) b[r] -= lu_[r * n + c] * b[c];
-    b[r] /= lu_[r * n + r];
-  }
-}
 
 /// What a load network is once zero and infinite parts are folded away.
 enum class Reduced { open, short_circuit, elements };
@@ -384,7 +363,7 @@ void Simulation::assemble(std::size_t k) {
       a[r * n + r] = 1.0;
     }
   }
-  lu_.factor(std::move(a), n);
+  lu_.factor(a, n);
 }
 
 void Simulation::step(std::size_t k, std::vector<double>& x) {
