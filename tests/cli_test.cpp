@@ -108,8 +108,8 @@ TEST_CASE("rungs check: exit 0 for adequate ladders, 1 with a reason a line othe
   CHECK(run_rungs("check -", "line t a -> b coax\n").exit_code == 2);
 }
 
-TEST_CASE("rungs plan --verify finds the smallest adequate count") {
-  auto r = run_rungs("plan --verify --json -", open_line(""));
+TEST_CASE("rungs plan (verified by default) finds the smallest adequate count") {
+  auto r = run_rungs("plan --json -", open_line(""));
   CHECK(r.exit_code == 0);
   CHECK(r.out.find("\"sections\": 12,") != std::string::npos);
   CHECK(r.out.find("\"adequate\": true") != std::string::npos);
@@ -134,7 +134,7 @@ TEST_CASE("rungs check --netlist: a netlist must be what emit writes now") {
 
 TEST_CASE("plan with a plot folder writes a waveform chart for each load and an error chart for each line") {
   const std::string dir = "/tmp/rungs_plot_test_" + std::to_string(::getpid());
-  auto r = run_rungs("plan --verify --plot " + dir + " -", open_line(""));
+  auto r = run_rungs("plan --plot " + dir + " -", open_line(""));
   CHECK(r.exit_code == 0);
   for (const char* name : {"/waveform_b.svg", "/error_t.svg"}) {
     std::ifstream in(dir + name);

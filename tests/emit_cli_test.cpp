@@ -38,6 +38,7 @@
 #include "emit/templates.h"
 #include "physics/resolve.h"
 #include "plan/plan.h"
+#include "plan/verify.h"
 #include "report/plan_report.h"
 #include "run_command.h"
 #include "sim/peak.h"
@@ -317,15 +318,18 @@ Emitted emit_in_process(const GoldenCase& c) {
   syntax::Diagnostics diagnostics(file);
   const auto circuit = rungs::physics::resolve(syntax::parse_description(diagnostics), diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
-  const auto plan = rungs::plan::plan_circuit(circuit, diagnostics);
+  const auto analytic = rungs::plan::plan_circuit(circuit, diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
+  // The verified planner, as rungs emit plans by default.
+  const auto [plan, verification] = rungs::plan::plan_verified(circuit, analytic);
   std::ostringstream deck;
   const std::string error = rungs::emit::write_deck(
       deck, circuit, plan, {file.name, rungs::emit::sha256_hex(file.text)},
       rungs::emit::builtin_templates(), {c.option == "library", c.option == "with-ideal"});
   REQUIRE(error.empty());
   const auto peak = rungs::sim::estimate_peak(circuit, plan);
-  return {0, "", deck.str(), rungs::report::plan_text(circuit, plan, peak, file.name)};
+  return {0, "", deck.str(),
+          rungs::report::plan_text(circuit, plan, peak, file.name, &verification)};
 }
 
 TEST_CASE("the stages write the same bytes with a decimal-comma global locale", "[determinism]") {

@@ -28,6 +28,7 @@
 #include "emit/templates.h"
 #include "physics/resolve.h"
 #include "plan/plan.h"
+#include "plan/verify.h"
 #include "syntax/diagnostics.h"
 #include "syntax/parser.h"
 
@@ -427,8 +428,9 @@ std::string deck_of(const std::string& text, emit::DeckOptions options = {}) {
   const physics::Circuit circuit = physics::resolve(description, diagnostics);
   INFO(diagnostics.render());
   REQUIRE_FALSE(diagnostics.has_errors());
-  const plan::Plan plan = plan::plan_circuit(circuit, diagnostics);
+  plan::Plan plan = plan::plan_circuit(circuit, diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
+  plan::set_closing_voltages(circuit, plan);  // as prepare_netlist does
   std::ostringstream out;
   const std::string error =
       emit::write_deck(out, circuit, plan, {file.name, emit::sha256_hex(file.text)},

@@ -90,6 +90,7 @@ std::optional<LoadedManifest> load_manifest(const BuildOptions& options, int& ex
       job.library = entry.library;
       job.with_ideal = entry.with_ideal;
       job.defaults = manifest.defaults.settings;
+      job.analytic = options.analytic;
       // Paths that lead nowhere are the manifest's mistake: point at them there.
       if (!fs::is_regular_file(job.source, ec))
         diagnostics.error(entry.source_span,

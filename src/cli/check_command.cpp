@@ -15,13 +15,13 @@
 namespace rungs::cli {
 
 int check_command(const std::string& path, const std::string& netlist_path, bool json,
-                  bool verify, const std::string& plots) {
+                  bool analytic, const std::string& plots) {
   // The counts checked are the ones emit writes with the same planner option, so that a
   // passing check vouches for the committed netlist itself.
   NetlistJob job;
   job.source = path;
   job.output = netlist_path.empty() ? "-" : netlist_path;
-  job.verify = verify;
+  job.analytic = analytic;
   Preparation prepared = prepare_netlist(job);
   std::cerr << prepared.messages;
   if (!prepared.netlist) return prepared.exit_code;

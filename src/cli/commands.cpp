@@ -33,10 +33,10 @@ std::optional<physics::Circuit> load_circuit(const syntax::SourceFile& file) {
   return circuit;
 }
 
-int plan_command(const std::string& path, bool json, bool verify, const std::string& plots) {
+int plan_command(const std::string& path, bool json, bool analytic, const std::string& plots) {
   NetlistJob job;
   job.source = path;
-  job.verify = verify;
+  job.analytic = analytic;
   const Preparation prepared = prepare_netlist(job);
   std::cerr << prepared.messages;
   if (!prepared.netlist) return prepared.exit_code;
@@ -88,10 +88,11 @@ int run(int argc, char** argv) {
       app.add_subcommand("plan", "Print how each line becomes a ladder; write nothing");
   plan->add_option("FILE", path, "Description file (.rungs), or - for standard input")->required();
   plan->add_flag("--json", json, "Print JSON (SI units) instead of a report");
-  bool verify = false;
-  plan->add_flag("--verify", verify,
-                 "Measure every ladder against the exact line and search the smallest adequate "
-                 "section count (slower; designs with switched loads may not converge)");
+  bool analytic = false;
+  constexpr const char* analytic_help =
+      "Plan by the analytic estimate alone: faster, but no ladder is measured against the exact "
+      "line";
+  plan->add_flag("--analytic", analytic, analytic_help);
 
   std::string check_netlist;
   CLI::App* check = app.add_subcommand(
@@ -101,7 +102,8 @@ int run(int argc, char** argv) {
   check->add_option("--netlist", check_netlist,
                     "Also require this netlist to be exactly what rungs emit writes now");
   check->add_flag("--json", json, "Print JSON instead of one line a failure");
-  check->add_flag("--verify", verify, "Check the counts of the verified planner (emit --verify)");
+  check->add_flag("--analytic", analytic,
+                  "Check the analytic planner's counts (those emit --analytic writes)");
   std::string plots;
   plan->add_option("--plot", plots,
                    "Write SVG charts here: waveforms at each load, error against sections");
@@ -123,8 +125,7 @@ int run(int argc, char** argv) {
                    "Folder of NAME.tmpl files that replace the built-in deck templates");
   emit->add_flag("--force", emit_options.force, "Overwrite a netlist that rungs did not write");
   emit->add_flag("-q,--quiet", emit_options.quiet, "No summary on standard error");
-  emit->add_flag("--verify", emit_options.verify,
-                 "Plan by the verified planner: ladders measured against the exact line");
+  emit->add_flag("--analytic", emit_options.analytic, analytic_help);
   emit->add_option("--depfile", emit_options.depfile,
                    "Also write a make-syntax depfile: the outputs, made from the description "
                    "and templates");
@@ -145,6 +146,7 @@ int run(int argc, char** argv) {
                     "descriptions and templates");
   build->add_flag("--force", build_options.force, "Overwrite netlists that rungs did not write");
   build->add_flag("-q,--quiet", build_options.quiet, "Print only errors and stale outputs");
+  build->add_flag("--analytic", build_options.analytic, analytic_help);
 
   try {
     app.parse(argc, argv);
@@ -154,8 +156,8 @@ int run(int argc, char** argv) {
   }
   try {
     if (lines->parsed()) return lines_command(path, json);
-    if (plan->parsed()) return plan_command(path, json, verify, plots);
-    if (check->parsed()) return check_command(path, check_netlist, json, verify, plots);
+    if (plan->parsed()) return plan_command(path, json, analytic, plots);
+    if (check->parsed()) return check_command(path, check_netlist, json, analytic, plots);
     if (emit->parsed()) return emit_command(path, emit_options);
     if (build->parsed()) return build_command(build_options);
   } catch (const std::exception& e) {

@@ -41,7 +41,7 @@ int emit_command(const std::string& path, const EmitOptions& options) {
   job.templates = options.templates;
   job.library = options.library;
   job.with_ideal = options.with_ideal;
-  job.verify = options.verify;
+  job.analytic = options.analytic;
   const Preparation prepared = prepare_netlist(job);
   std::cerr << prepared.messages;
   if (!prepared.netlist) return prepared.exit_code;

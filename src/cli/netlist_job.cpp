@@ -127,7 +127,7 @@ Preparation prepare_netlist(const NetlistJob& job) {
     return result;
   }
   netlist.templates = std::move(*templates);
-  if (job.verify) {
+  if (!job.analytic) {
     try {
       const ProgressNote note(fmt::format("verifying the ladders of {}", netlist.circuit.name));
       auto [verified, verification] = plan::plan_verified(netlist.circuit, netlist.plan);
@@ -137,6 +137,17 @@ Preparation prepare_netlist(const NetlistJob& job) {
       result.messages += fmt::format("{}: warning: the exact reference cannot check this design "
                                      "({}); the analytic plan is used\n",
                                      netlist.file.name, e.what());
+    }
+  }
+  if (netlist.plan.closing_voltage.empty()) {
+    try {
+      plan::set_closing_voltages(netlist.circuit, netlist.plan);
+    } catch (const std::exception& e) {
+      result.messages += fmt::format("{}: warning: the switches' open voltages cannot be found "
+                                     "({}); they close at once\n",
+                                     netlist.file.name, e.what());
+      std::fill(netlist.plan.closing.begin(), netlist.plan.closing.end(), 0.0);
+      netlist.plan.closing_voltage.assign(netlist.circuit.loads.size(), 0.0);
     }
   }
   if (!job.report.empty() || !job.report_json.empty())

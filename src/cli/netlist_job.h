@@ -26,7 +26,9 @@ struct NetlistJob {
   std::string templates;    // optional: a folder of NAME.tmpl overrides
   bool library = false;
   bool with_ideal = false;
-  bool verify = false;  // also run the verified planner against the exact reference
+  /// Plan by the analytic estimate only; otherwise (the default) by the verified planner,
+  /// every ladder measured against the exact reference.
+  bool analytic = false;
   std::vector<build::DefaultSetting> defaults;  // design-wide settings from a manifest
 };
 
@@ -49,8 +51,8 @@ struct Preparation {
 };
 
 /// Reads the job's description and templates, applies its defaults, resolves, plans (with
-/// job.verify, by the verified planner; if the exact reference cannot take the circuit, the
-/// analytic plan stands and a warning says so), and checks the templates. Writes nothing and prints nothing: every message is in `messages`.
+/// the verified planner unless job.analytic; if the exact reference cannot take the circuit, the
+/// analytic plan stands and a warning says so), fills the switches' closing voltages, and checks the templates. Writes nothing and prints nothing: every message is in `messages`.
 /// Safe to call from several threads at once.
 Preparation prepare_netlist(const NetlistJob& job);
 

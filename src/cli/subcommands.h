@@ -15,7 +15,7 @@ struct EmitOptions {
   bool with_ideal = false;
   bool force = false;
   bool quiet = false;
-  bool verify = false;  // plan by the verified planner (exact reference)
+  bool analytic = false;  // plan by the analytic estimate only, unmeasured
 };
 
 /// Writes the netlist of `path` (and the reports and depfile asked for); returns the exit code.
@@ -29,17 +29,18 @@ struct BuildOptions {
   bool check = false;
   bool force = false;
   bool quiet = false;
+  bool analytic = false;  // plan every output by the analytic estimate only, unmeasured
 };
 
 /// Builds, or with `check` compares, every output of a manifest; returns the exit code.
 int build_command(const BuildOptions& options);
 
-/// `rungs check FILE [--netlist FILE] [--json] [--verify]`: exit 0 when every ladder that emit
-/// writes (with the same --verify) is adequate, measured against the exact reference, and,
+/// `rungs check FILE [--netlist FILE] [--json] [--analytic]`: exit 0 when every ladder that
+/// emit writes (with the same --analytic) is adequate, measured against the exact reference, and,
 /// with a netlist, when it is exactly what emit would write now; else exit 1 with one line of
 /// reason for each failure.
 /// With `plots`, also writes the SVG charts into that folder.
-int check_command(const std::string& path, const std::string& netlist, bool json, bool verify,
+int check_command(const std::string& path, const std::string& netlist, bool json, bool analytic,
                   const std::string& plots);
 
 }  // namespace rungs::cli

@@ -2,7 +2,9 @@
 #include "emit/deck.h"
 
 #include <algorithm>
+#include <charconv>
 #include <map>
+#include <stdexcept>
 #include <vector>
 
 #include <fmt/format.h>
@@ -95,7 +97,7 @@ class TopLevel {
       }
     }
     for (const physics::Drive& d : circuit_.drives) drive(d);
-    for (const physics::Load& l : circuit_.loads) load(l);
+    for (std::size_t i = 0; i < circuit_.loads.size(); ++i) load(circuit_.loads[i], i);
   }
 
   /// A node of the description in this copy: its own name, or its claimed ideal twin.
@@ -118,7 +120,7 @@ class TopLevel {
     out_ << fmt::format("{} {} 0 {}\n", names_.claim("V_" + base), at, wave_of(d, rise));
   }
 
-  void load(const physics::Load& l) {
+  void load(const physics::Load& l, std::size_t index) {
     const std::string base = sanitize_name(l.node) + suffix_;
     std::string from = node(l.node);
     if (l.at) {
@@ -129,6 +131,22 @@ class TopLevel {
       out_ << fmt::format("{} {} 0 {}\n", names_.claim("V_" + base + "__ctl"), control,
                           pwl({{*l.at, 0.0}, {*l.at + switch_time_, 1.0}}));
       from = switched;
+      const double closing = index < plan_.closing.size() ? plan_.closing[index] : 0.0;
+      if (closing > 0.0) {
+        if (index >= plan_.closing_voltage.size())
+          throw std::logic_error("the plan has no closing voltages (plan::set_closing_voltages)");
+        // Six figures: a part in a million of the open voltage starts no current worth seeing,
+        // and the deck's bytes do not follow the last bits of a floating-point sum.
+        const std::string figures = fmt::format("{:.6g}", plan_.closing_voltage[index]);
+        double open = 0.0;
+        std::from_chars(figures.data(), figures.data() + figures.size(), open);
+        const std::string closed = names_.claim(base + "__cl");
+        out_ << fmt::format("* the switch's voltage falls from {} V, its open value, to 0 over {} s\n",
+                            spice_number(open), spice_number(closing));
+        out_ << fmt::format("{} {} {} {}\n", names_.claim("V_" + base + "__close"), switched,
+                            closed, pwl({{*l.at, open}, {*l.at + closing, 0.0}}));
+        from = closed;
+      }
     }
     network(l.network, base, from, "0");
   }

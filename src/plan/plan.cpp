@@ -117,12 +117,72 @@ void set_sections(const physics::Line& line, LinePlan& lp, int sections) {
   lp.elements = ladder_elements(sections, lp.shape, lp.section_r > 0.0, lp.section_g > 0.0);
 }
 
+std::vector<CircuitPart> circuit_parts(const Circuit& circuit) {
+  Components components(circuit);
+  std::vector<CircuitPart> parts;
+  std::map<int, std::size_t> index;  // component -> parts
+  const auto part_of = [&](const std::string& node) -> CircuitPart* {
+    auto it = index.find(components.of(node));
+    return it == index.end() ? nullptr : &parts[it->second];
+  };
+  for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
+    const int c = components.of(circuit.lines[k].near);
+    auto [it, fresh] = index.emplace(c, parts.size());
+    if (fresh) {
+      parts.emplace_back();
+      parts.back().circuit.name = circuit.name;
+      parts.back().circuit.settings = circuit.settings;
+    }
+    parts[it->second].circuit.lines.push_back(circuit.lines[k]);
+    parts[it->second].lines.push_back(k);
+  }
+  for (const physics::Drive& d : circuit.drives)
+    if (CircuitPart* p = part_of(d.node)) p->circuit.drives.push_back(d);
+  for (std::size_t i = 0; i < circuit.loads.size(); ++i)
+    if (CircuitPart* p = part_of(circuit.loads[i].node)) {
+      p->circuit.loads.push_back(circuit.loads[i]);
+      p->loads.push_back(i);
+    }
+  return parts;
+}
+
+Plan part_plan(const Plan& whole, const CircuitPart& part) {
+  Plan p;
+  p.window = whole.window;
+  p.time_step = whole.time_step;
+  for (const std::size_t k : part.lines) {
+    p.lines.push_back(whole.lines[k]);
+    p.elements += whole.lines[k].elements;
+  }
+  for (const std::size_t i : part.loads) {
+    p.closing.push_back(i < whole.closing.size() ? whole.closing[i] : 0.0);
+    if (!whole.closing_voltage.empty()) p.closing_voltage.push_back(whole.closing_voltage[i]);
+  }
+  return p;
+}
+
+double deck_time_step(const physics::Circuit& circuit, const Plan& plan) {
+  double shortest_ramp = std::numeric_limits<double>::infinity();
+  for (const physics::Drive& d : circuit.drives) {
+    const double rise = d.rise.value_or(circuit.settings.rise.value_or(0.0));
+    if (rise > 0.0) shortest_ramp = std::min(shortest_ramp, rise / 0.8);
+  }
+  for (const double closing : plan.closing)
+    if (closing > 0.0) shortest_ramp = std::min(shortest_ramp, closing);
+  double shortest_section = std::numeric_limits<double>::infinity();
+  for (std::size_t k = 0; k < circuit.lines.size() && k < plan.lines.size(); ++k)
+    if (plan.lines[k].sections > 0)
+      shortest_section =
+          std::min(shortest_section, circuit.lines[k].delay / plan.lines[k].sections);
+  const double step = std::min(shortest_ramp / 40.0, shortest_section / 8.0);
+  return std::isfinite(step) ? step : plan.window / 1000.0;
+}
+
 Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
   Plan plan;
   Components parts(circuit);
   std::map<int, double> fastest_edge;  // component -> smallest drive rise time
   double last_event = 0.0;             // s, when the last drive has finished changing
-  double shortest_ramp = std::numeric_limits<double>::infinity();
   for (const physics::Drive& d : circuit.drives) {
     const double rise = d.rise.value_or(circuit.settings.rise.value_or(0.0));
     if (!(rise > 0.0)) continue;  // reported by the resolver
@@ -130,7 +190,6 @@ Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
     auto [it, fresh] = fastest_edge.emplace(part, rise);
     if (!fresh) it->second = std::min(it->second, rise);
     const double ramp = rise / 0.8;
-    shortest_ramp = std::min(shortest_ramp, ramp);
     double end = d.at + ramp;
     if (d.kind == physics::WaveKind::pulse) end += d.width.value_or(0.0) + ramp;
     last_event = std::max(last_event, end);
@@ -149,7 +208,6 @@ Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
   }
 
   std::map<int, double> part_delay;  // component -> sum of its line delays
-  double shortest_section = std::numeric_limits<double>::infinity();
   for (const Line& line : circuit.lines) {
     part_delay[parts.of(line.near)] += line.delay;
     LinePlan lp;
@@ -179,7 +237,6 @@ Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
         estimate_ladder_error(line.delay, lp.rise, lp.rule_sections, lp.shape).total();
     lp.bandwidth = knee_frequency(lp.rise);
     plan.elements += lp.elements;
-    shortest_section = std::min(shortest_section, line.delay / lp.sections);
     plan.lines.push_back(lp);
   }
 
@@ -188,10 +245,18 @@ Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
                       [](double m, const auto& p) { return std::max(m, p.second); });
   const int trips = settling_round_trips(circuit, circuit.settings.tolerance);
   plan.window = circuit.settings.window.value_or(last_event + (2.0 * trips + 1.0) * slowest_part);
-  // The simulator's step must resolve both the fastest ramp and one section's delay; the
-  // factors are measured with ngspice in tests/emit_ngspice_test.cpp.
-  plan.time_step = std::min(shortest_ramp / 40.0, shortest_section / 8.0);
-  if (!std::isfinite(plan.time_step)) plan.time_step = plan.window / 1000.0;
+  plan.closing.assign(circuit.loads.size(), 0.0);
+  for (std::size_t i = 0; i < circuit.loads.size(); ++i) {
+    const physics::Load& load = circuit.loads[i];
+    if (!load.at) continue;
+    double rise = std::numeric_limits<double>::infinity();
+    for (std::size_t k = 0; k < circuit.lines.size(); ++k)
+      if ((circuit.lines[k].near == load.node || circuit.lines[k].far == load.node) &&
+          plan.lines[k].rise > 0.0)
+        rise = std::min(rise, plan.lines[k].rise);
+    if (std::isfinite(rise)) plan.closing[i] = rise / 0.8;
+  }
+  plan.time_step = deck_time_step(circuit, plan);
   return plan;
 }
 

@@ -33,6 +33,16 @@ struct Plan {
   long long elements = 0;  // ladder elements of all lines
   double window = 0.0;     // s, simulated time
   double time_step = 0.0;  // s, the simulator's maximum step
+  /// s, parallel to circuit.loads: a switched load's closing time, over which its switch's
+  /// voltage falls linearly from its open value to zero (in the deck and in the exact
+  /// reference alike): the 0-100 % ramp (rise/0.8) of the fastest line at its node. 0 for a
+  /// load that is not switched, or whose node no line with an edge reaches (an ideal switch).
+  std::vector<double> closing;
+  /// V, parallel to circuit.loads: the open voltage across each switch that closes over a
+  /// ramp, at the moment it starts to close, with the plan's ladders in place (the deck's
+  /// switch starts from it, so no current jumps). Filled by plan::set_closing_voltages; empty
+  /// until then.
+  std::vector<double> closing_voltage;
 };
 
 /// Elements of an N-section ladder: L and C per section, plus a series R and a shunt G
@@ -43,6 +53,27 @@ long long ladder_elements(int sections, physics::Shape shape, bool has_r, bool h
 /// Sets a line's section count and every figure that follows from it: the section values,
 /// cutoff, predicted error and element count (rise, shape and tolerance must be set).
 void set_sections(const physics::Line& line, LinePlan& plan, int sections);
+
+/// The simulator's maximum step for a plan's counts: it resolves the fastest ramp (a drive's
+/// rise/0.8 or a switch's closing) over 40 steps and one section's delay over 8 (factors
+/// measured with ngspice in tests/emit_ngspice_test.cpp); a window's thousandth when neither
+/// bounds it.
+double deck_time_step(const physics::Circuit& circuit, const Plan& plan);
+
+/// One connected part of a circuit (line ends joined through lines) as a circuit of its own:
+/// its lines, and the drives and loads on its nodes, each with its index in the whole.
+struct CircuitPart {
+  physics::Circuit circuit;
+  std::vector<std::size_t> lines;
+  std::vector<std::size_t> loads;
+};
+
+/// The circuit's connected parts, in the order of their first line. Parts share no node, so
+/// each can be solved alone.
+std::vector<CircuitPart> circuit_parts(const physics::Circuit& circuit);
+
+/// The plan of one part, cut from the whole circuit's plan.
+Plan part_plan(const Plan& whole, const CircuitPart& part);
 
 /// Plans every line: the rise time that reaches it (its own rise=, else the fastest drive
 /// in its connected part of the circuit, else `set rise`; a line with none is an error),

@@ -24,6 +24,7 @@ sim::ReferenceOptions reference_options(const Plan& plan) {
   sim::ReferenceOptions o;
   o.window = plan.window;
   o.target = tolerance / 20.0;
+  o.closing = plan.closing;
   return o;
 }
 
@@ -40,11 +41,12 @@ bool meets(double error, double accuracy, double tolerance) {
   return error + accuracy <= tolerance;
 }
 
-/// The largest error at any line end of the circuit, with the lines that have a ladder in
-/// `ladders` cut and the rest exact, and the figure's estimated accuracy (as
+/// The errors at the line ends of the circuit, with the lines that have a ladder in `ladders`
+/// cut and the rest exact, and the figures' estimated accuracy (as
 /// sim::measure_ladder_error computes both, which takes every line as a ladder).
 struct Measured {
-  double error = 0.0;
+  std::vector<double> line_errors;  // per line: the larger of its two ends
+  double error = 0.0;               // the largest of all
   double accuracy = 0.0;
 };
 
@@ -53,21 +55,20 @@ Measured measure_partial(const physics::Circuit& circuit, const sim::Response& e
                          const sim::ReferenceOptions& options, sim::ResponseWorkspace& ws) {
   const sim::Response lad = sim::frequency_response(circuit, ladders, exact.grid, options, &ws);
   Measured m;
-  std::vector<std::size_t> nodes;
+  std::vector<double> node_error(exact.nodes.size(), -1.0);  // -1: not a line end
   for (const physics::Line& line : circuit.lines)
     for (const std::string* name : {&line.near, &line.far}) {
       if (physics::is_ground(*name)) continue;
-      if (auto i = exact.node_index(*name)) nodes.push_back(*i);
+      if (auto i = exact.node_index(*name)) node_error[*i] = 0.0;
     }
-  std::sort(nodes.begin(), nodes.end());
-  nodes.erase(std::unique(nodes.begin(), nodes.end()), nodes.end());
   double trunc_worst = 0.0;
-  for (const std::size_t i : nodes)
+  for (std::size_t i = 0; i < node_error.size(); ++i) {
+    if (node_error[i] < 0.0) continue;
     for (std::size_t c = 0; c < exact.sources.size(); ++c) {
       const double swing = exact.sources[c].swing;
       if (!(std::abs(swing) > 0.0)) continue;
-      m.error = std::max(
-          m.error, sim::compare_waveforms(exact.t, exact.v[c][i], lad.v[c][i], swing).error);
+      node_error[i] = std::max(
+          node_error[i], sim::compare_waveforms(exact.t, exact.v[c][i], lad.v[c][i], swing).error);
       double trunc = 0.0;
       for (std::size_t j = 0; j < exact.coarse[c][i].size(); ++j) {
         const double fine = lad.v[c][i][2 * j] - exact.v[c][i][2 * j];
@@ -76,16 +77,27 @@ Measured measure_partial(const physics::Circuit& circuit, const sim::Response& e
       }
       trunc_worst = std::max(trunc_worst, trunc / std::abs(swing));
     }
+  }
+  for (const physics::Line& line : circuit.lines) {
+    double e = 0.0;
+    for (const std::string* name : {&line.near, &line.far})
+      if (auto i = exact.node_index(*name); i && !physics::is_ground(*name))
+        e = std::max(e, node_error[*i]);
+    m.line_errors.push_back(e);
+    m.error = std::max(m.error, e);
+  }
   m.accuracy = trunc_worst + exact.accuracy.aliasing + lad.accuracy.aliasing;
   return m;
 }
 
-
 Verification verify_against(const physics::Circuit& circuit, const Plan& plan,
                             const sim::Response& exact, const sim::ReferenceOptions& o,
-                            sim::ResponseWorkspace& ws) {
-  const sim::LadderError planned = sim::measure_ladder_error(circuit, exact, ladder_specs(plan, false), o, &ws);
-  const sim::LadderError rule = sim::measure_ladder_error(circuit, exact, ladder_specs(plan, true), o, &ws);
+                            sim::ResponseWorkspace& ws, bool with_rule = true) {
+  const sim::LadderError planned =
+      sim::measure_ladder_error(circuit, exact, ladder_specs(plan, false), o, &ws);
+  const sim::LadderError rule =
+      with_rule ? sim::measure_ladder_error(circuit, exact, ladder_specs(plan, true), o, &ws)
+                : planned;
   Verification v;
   v.accuracy = planned.accuracy;
   v.reference_within_target = exact.accuracy.within_target;
@@ -108,17 +120,22 @@ Verification verify_against(const physics::Circuit& circuit, const Plan& plan,
 }
 
 /// The smallest passing N of one line with the others exact (see plan_verified).
+/// One line's measured counts, kept across searches: N -> error + accuracy, that line alone a
+/// ladder (the rest exact), so a search at a tighter budget only measures counts not yet seen.
+using Measurements = std::map<int, double>;
+
 int search_line(const physics::Circuit& circuit, const sim::Response& exact,
                 const sim::ReferenceOptions& o, sim::ResponseWorkspace& ws, std::size_t k,
-                const LinePlan& lp) {
-  std::map<int, bool> seen;
+                const LinePlan& lp, double budget, Measurements& seen, bool scan) {
   const auto passes = [&](int n) {
     auto it = seen.find(n);
-    if (it != seen.end()) return it->second;
-    std::vector<std::optional<LadderSpec>> ladders(circuit.lines.size());
-    ladders[k] = LadderSpec{n, lp.shape};
-    const Measured m = measure_partial(circuit, exact, ladders, o, ws);
-    return seen[n] = meets(m.error, m.accuracy, lp.tolerance);
+    if (it == seen.end()) {
+      std::vector<std::optional<LadderSpec>> ladders(circuit.lines.size());
+      ladders[k] = LadderSpec{n, lp.shape};
+      const Measured m = measure_partial(circuit, exact, ladders, o, ws);
+      it = seen.emplace(n, m.error + m.accuracy).first;
+    }
+    return it->second <= budget;
   };
   const int start = std::clamp(lp.sections, 1, kVerifiedMaxSections);
   int lo = 0, hi = 0;  // lo fails (0: none known), hi passes
@@ -149,14 +166,17 @@ int search_line(const physics::Circuit& circuit, const sim::Response& exact,
       const int mid = lo + (hi - lo) / 2;
       (passes(mid) ? hi : lo) = mid;
     }
-    // Not monotonic everywhere: look two below the answer before taking it.
-    if (hi - 1 >= 1 && passes(hi - 1)) {
-      hi = hi - 1;
-    } else if (hi - 2 >= 1 && passes(hi - 2)) {
-      hi = hi - 2;
-    } else {
-      return hi;
-    }
+    // Not monotonic everywhere: look two below the answer, then at twelve counts spread over
+    // the quarter below it (a band that passes below a band that fails is a few per cent of N
+    // wide where it was seen), before taking it.
+    int below = 0;
+    if (hi - 1 >= 1 && passes(hi - 1)) below = hi - 1;
+    else if (hi - 2 >= 1 && passes(hi - 2)) below = hi - 2;
+    const int stride = std::max(1, hi / 48);
+    for (int step = 1; scan && below == 0 && step <= 12 && hi - step * stride >= 1; ++step)
+      if (passes(hi - step * stride)) below = hi - step * stride;
+    if (below == 0) return hi;
+    hi = below;
     lo = 0;
     // A new passing count below: bracket again downward from it.
     while (hi > 1) {
@@ -170,65 +190,159 @@ int search_line(const physics::Circuit& circuit, const sim::Response& exact,
   }
 }
 
-}  // namespace
 
-Verification verify_plan(const physics::Circuit& circuit, const Plan& plan) {
-  if (plan.lines.size() != circuit.lines.size())
-    throw std::invalid_argument("the plan is not of this circuit");
+void closing_voltages_on(const physics::Circuit& circuit, Plan& plan,
+                         const sim::LaplaceGrid& grid, sim::ResponseWorkspace& ws) {
+  plan.closing_voltage.assign(circuit.loads.size(), 0.0);
+  if (std::none_of(plan.closing.begin(), plan.closing.end(), [](double c) { return c > 0.0; }))
+    return;
+  const std::vector<LadderSpec> specs = ladder_specs(plan);
+  const std::vector<std::optional<LadderSpec>> ladders(specs.begin(), specs.end());
+  const sim::Response r =
+      sim::frequency_response(circuit, ladders, grid, reference_options(plan), &ws);
+  for (std::size_t i = 0; i < r.switch_voltages.size(); ++i)
+    plan.closing_voltage[r.switches[i].load] = r.switch_voltages[i];
+}
+
+Verification verify_part(const physics::Circuit& circuit, const Plan& plan) {
   const sim::ReferenceOptions o = reference_options(plan);
   sim::ResponseWorkspace ws;
   const sim::Response exact = sim::exact_reference(circuit, o, &ws);
   return verify_against(circuit, plan, exact, o, ws);
 }
 
-std::pair<Plan, Verification> plan_verified(const physics::Circuit& circuit,
-                                            const Plan& analytic) {
-  if (analytic.lines.size() != circuit.lines.size())
-    throw std::invalid_argument("the plan is not of this circuit");
+std::pair<Plan, Verification> plan_verified_part(const physics::Circuit& circuit,
+                                                 const Plan& analytic) {
   Plan plan = analytic;
   const sim::ReferenceOptions o = reference_options(plan);
   sim::ResponseWorkspace ws;
   const sim::Response exact = sim::exact_reference(circuit, o, &ws);
 
-  for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
+  const std::size_t n = circuit.lines.size();
+  std::vector<std::size_t> adjustable;
+  for (std::size_t j = 0; j < n; ++j)
+    if (!plan.lines[j].fixed && plan.lines[j].rise > 0.0) adjustable.push_back(j);
+  std::vector<Measurements> seen(n);
+  std::vector<double> share(n, 1.0);  // of each line's tolerance, its budget alone
+  for (const std::size_t k : adjustable) {
     LinePlan& lp = plan.lines[k];
-    if (lp.fixed || !(lp.rise > 0.0)) continue;
-    set_sections(circuit.lines[k], lp, search_line(circuit, exact, o, ws, k, lp));
+    set_sections(circuit.lines[k], lp,
+                 search_line(circuit, exact, o, ws, k, lp, lp.tolerance, seen[k], true));
   }
 
-  // Together: a line may pass alone and fail beside the others' ladders.
-  Verification v = verify_against(circuit, plan, exact, o, ws);
-  for (int round = 0; round < 32; ++round) {
-    bool raised = false;
-    for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
-      LinePlan& lp = plan.lines[k];
-      if (v.lines[k].adequate || lp.fixed || !(lp.rise > 0.0) ||
-          lp.sections >= kVerifiedMaxSections)
-        continue;
-      set_sections(circuit.lines[k], lp,
-                   std::min(kVerifiedMaxSections, lp.sections + std::max(1, lp.sections / 8)));
-      raised = true;
+  // Together: a line may pass alone and fail beside the others' ladders, whose errors add at
+  // the nodes they share.
+  Verification v = verify_against(circuit, plan, exact, o, ws, false);
+  // A line that fails with only the fixed ladders in place (every planned line exact) fails
+  // whatever the planned counts are: it is left to the fixed lines' sections=.
+  std::vector<bool> owed_to_fixed(n, false);
+  if (adjustable.size() < n &&
+      std::any_of(v.lines.begin(), v.lines.end(), [](const LineVerdict& l) { return !l.adequate; })) {
+    std::vector<std::optional<LadderSpec>> fixed(n);
+    for (std::size_t j = 0; j < n; ++j)
+      if (plan.lines[j].fixed) fixed[j] = LadderSpec{std::max(1, plan.lines[j].sections), plan.lines[j].shape};
+    const Measured f = measure_partial(circuit, exact, fixed, o, ws);
+    for (std::size_t k = 0; k < n; ++k)
+      owed_to_fixed[k] = !meets(f.line_errors[k], f.accuracy, plan.lines[k].tolerance);
+  }
+  // While a line fails, the planned lines that meet it (it and those sharing one of its
+  // ends) search again alone at a smaller share of their tolerance: by the worst failing
+  // line's ratio of budget to error, between a tenth and a half less each round.
+  for (int round = 0; round < 24; ++round) {
+    std::vector<bool> tighten(n, false);
+    double ratio = 1.0;
+    bool failing = false;
+    for (std::size_t k = 0; k < n; ++k) {
+      if (v.lines[k].adequate || owed_to_fixed[k]) continue;
+      failing = true;
+      ratio = std::min(ratio, std::max(0.0, plan.lines[k].tolerance - v.accuracy) /
+                                  std::max(v.lines[k].error, 1e-12));
+      const physics::Line& line = circuit.lines[k];
+      for (const std::size_t j : adjustable) {
+        const physics::Line& other = circuit.lines[j];
+        tighten[j] = tighten[j] || j == k || other.near == line.near || other.near == line.far ||
+                     other.far == line.near || other.far == line.far;
+      }
     }
-    if (!raised) break;
-    v = verify_against(circuit, plan, exact, o, ws);
+    if (!failing) break;
+    const double factor = std::clamp(ratio, 0.5, 0.9);
+    bool raised = false;
+    for (const std::size_t j : adjustable) {
+      if (!tighten[j]) continue;
+      share[j] *= factor;
+      LinePlan& lp = plan.lines[j];
+      const int before = lp.sections;
+      set_sections(circuit.lines[j], lp,
+                   search_line(circuit, exact, o, ws, j, lp, share[j] * lp.tolerance, seen[j], false));
+      raised = raised || lp.sections != before;
+    }
+    if (raised) v = verify_against(circuit, plan, exact, o, ws, false);
   }
+  v = verify_against(circuit, plan, exact, o, ws);
+  for (std::size_t k = 0; k < n; ++k) v.lines[k].owed_to_fixed = owed_to_fixed[k];
 
+  closing_voltages_on(circuit, plan, exact.grid, ws);
+  return {plan, v};
+}
+
+/// The whole plan, its parts' plans and verifications put back in place.
+void merge_part(const CircuitPart& part, const Plan& from, Plan& into) {
+  for (std::size_t j = 0; j < part.lines.size(); ++j) into.lines[part.lines[j]] = from.lines[j];
+  for (std::size_t j = 0; j < part.loads.size() && j < from.closing_voltage.size(); ++j)
+    into.closing_voltage[part.loads[j]] = from.closing_voltage[j];
+}
+
+void merge_part(const CircuitPart& part, const Verification& from, Verification& into) {
+  for (std::size_t j = 0; j < part.lines.size(); ++j) into.lines[part.lines[j]] = from.lines[j];
+  into.accuracy = std::max(into.accuracy, from.accuracy);
+  into.reference_within_target = into.reference_within_target && from.reference_within_target;
+}
+
+void check_plan_of(const physics::Circuit& circuit, const Plan& plan) {
+  if (plan.lines.size() != circuit.lines.size())
+    throw std::invalid_argument("the plan is not of this circuit");
+}
+
+}  // namespace
+
+void set_closing_voltages(const physics::Circuit& circuit, Plan& plan) {
+  check_plan_of(circuit, plan);
+  plan.closing_voltage.assign(circuit.loads.size(), 0.0);
+  for (const CircuitPart& part : circuit_parts(circuit)) {
+    Plan p = part_plan(plan, part);
+    const sim::ReferenceOptions o = reference_options(p);
+    sim::ResponseWorkspace ws;
+    closing_voltages_on(part.circuit, p, sim::initial_reference_grid(part.circuit, o), ws);
+    merge_part(part, p, plan);
+  }
+}
+
+Verification verify_plan(const physics::Circuit& circuit, const Plan& plan) {
+  check_plan_of(circuit, plan);
+  Verification v;
+  v.lines.resize(circuit.lines.size());
+  v.reference_within_target = true;
+  for (const CircuitPart& part : circuit_parts(circuit))
+    merge_part(part, verify_part(part.circuit, part_plan(plan, part)), v);
+  return v;
+}
+
+std::pair<Plan, Verification> plan_verified(const physics::Circuit& circuit,
+                                            const Plan& analytic) {
+  check_plan_of(circuit, analytic);
+  Plan plan = analytic;
+  plan.closing_voltage.assign(circuit.loads.size(), 0.0);
+  Verification v;
+  v.lines.resize(circuit.lines.size());
+  v.reference_within_target = true;
+  for (const CircuitPart& part : circuit_parts(circuit)) {
+    auto [p, pv] = plan_verified_part(part.circuit, part_plan(analytic, part));
+    merge_part(part, p, plan);
+    merge_part(part, pv, v);
+  }
   plan.elements = 0;
-  double shortest_section = std::numeric_limits<double>::infinity();
-  for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
-    plan.elements += plan.lines[k].elements;
-    if (plan.lines[k].sections > 0)
-      shortest_section =
-          std::min(shortest_section, circuit.lines[k].delay / plan.lines[k].sections);
-  }
-  double shortest_ramp = std::numeric_limits<double>::infinity();
-  for (const physics::Drive& d : circuit.drives) {
-    const double rise = d.rise.value_or(circuit.settings.rise.value_or(0.0));
-    if (rise > 0.0) shortest_ramp = std::min(shortest_ramp, rise / 0.8);
-  }
-  // As plan_circuit: the step resolves the fastest ramp and one section's delay.
-  const double step = std::min(shortest_ramp / 40.0, shortest_section / 8.0);
-  if (std::isfinite(step)) plan.time_step = step;
+  for (const LinePlan& lp : plan.lines) plan.elements += lp.elements;
+  plan.time_step = deck_time_step(circuit, plan);
   return {plan, v};
 }
 

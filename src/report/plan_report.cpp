@@ -34,15 +34,25 @@ std::string table(const std::vector<std::vector<std::string>>& rows) {
 
 }  // namespace
 
-std::vector<std::string> cautions(const physics::Circuit& circuit, const sim::PeakEstimate& peak) {
+std::vector<std::string> cautions(const physics::Circuit& circuit, const plan::Plan& plan,
+                                  const sim::PeakEstimate& peak) {
   std::vector<std::string> out;
   if (peak.computed && peak.voltage > peak.source_level * (1.0 + 1e-6))
     out.push_back(fmt::format("node {} can reach {:.4g} V, above the highest source level of "
                               "{:.4g} V: reflections push the voltage past the source, so rate "
                               "parts and insulation for the peak",
                               peak.node, peak.voltage, peak.source_level));
-  for (const physics::Load& l : circuit.loads) {
-    if (l.at)
+  for (std::size_t i = 0; i < circuit.loads.size(); ++i) {
+    const physics::Load& l = circuit.loads[i];
+    const double closing = i < plan.closing.size() ? plan.closing[i] : 0.0;
+    if (l.at && closing > 0.0)
+      out.push_back(fmt::format("the load on {} is switched in at {:.4g} ns by a switch whose "
+                                "voltage falls linearly to zero over {:.4g} ns (rise/0.8 of the "
+                                "fastest line at the node), in the deck and the exact reference "
+                                "alike; a real switch that closes faster needs a smaller rise= "
+                                "on those lines",
+                                l.node, *l.at * 1e9, closing * 1e9));
+    else if (l.at)
       out.push_back(fmt::format("the load on {} is switched in at {:.4g} ns through an ideal "
                                 "switch: its edge is instantaneous, so the ladder's error after "
                                 "it is not bounded by the predicted error; check the waveform "
@@ -120,7 +130,7 @@ std::string plan_text(const physics::Circuit& circuit, const plan::Plan& plan,
                        peak.ratio, peak.voltage, peak.node);
   else
     out += "peak: not computed (circuit too large for the quick lossless analysis)\n";
-  for (const std::string& c : cautions(circuit, peak)) out += "caution: " + c + "\n";
+  for (const std::string& c : cautions(circuit, plan, peak)) out += "caution: " + c + "\n";
   return out;
 }
 
@@ -169,7 +179,7 @@ std::string plan_json(const physics::Circuit& circuit, const plan::Plan& plan,
   json.key("peak_ratio").value(maybe(peak.ratio));
   json.key("peak_voltage").value(maybe(peak.voltage));
   json.key("cautions").begin_array();
-  for (const std::string& c : cautions(circuit, peak)) json.value(c);
+  for (const std::string& c : cautions(circuit, plan, peak)) json.value(c);
   json.end_array().end_object();
   return json.str();
 }
@@ -198,6 +208,14 @@ std::vector<std::string> inadequate_lines(const physics::Circuit& circuit, const
                               "budget",
                               circuit.lines[i].name, plan.lines[i].sections, percent(v.error),
                               percent(verification.accuracy), percent(plan.lines[i].tolerance)));
+    if (v.owed_to_fixed) {
+      std::string fixed;
+      for (std::size_t j = 0; j < circuit.lines.size(); ++j)
+        if (plan.lines[j].fixed) fixed += fmt::format("{}{}", fixed.empty() ? "" : ", ", circuit.lines[j].name);
+      out.back() += fmt::format("; it fails with every planned line exact, so the fixed "
+                                "sections= of {} cause it: raise or remove them",
+                                fixed);
+    }
   }
   return out;
 }

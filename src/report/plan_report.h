@@ -12,7 +12,8 @@ namespace rungs::report {
 
 /// Cautions a person must see: voltages above the source level, dc sources above 50 V,
 /// lines charged above 50 V. Each defers to local codes and licensed practice.
-std::vector<std::string> cautions(const physics::Circuit& circuit, const sim::PeakEstimate& peak);
+std::vector<std::string> cautions(const physics::Circuit& circuit, const plan::Plan& plan,
+                                  const sim::PeakEstimate& peak);
 
 /// The report for people: one row per line (model, Z0, delay, shape, sections, per-section
 /// L and C, cutoff, knee, their ratio, predicted error, the common rule's sections and its

@@ -16,48 +16,71 @@ namespace {
 /// The transforms of the sampled stage solution at one node, per source: K values per column.
 using NodeSpectra = Eigen::MatrixXcd;  // rows frequencies, columns sources
 
-/// The compensation source of a switch closing at `at` (Switch), per source column: the
-/// transform of e(t) = v(t) w(t) - v_steady (1 - w(t)), with v the node's voltage change while
-/// the switch is open and w = 1 before `at`, falling to 0 over the transition. `initial` is
-/// v(0+) per column: the jump at t = 0 is taken out before inverting (it would ring) and put
-/// back in closed form, E = T[(v - v0) w] + v0/s - (v0 + v_steady) L{1 - w}.
+/// The compensation source of a switch closing at `at` (Switch), per source column, and the
+/// switch's open voltage at `at` per column. e(t) is the voltage across the switch: before
+/// `at` the open-switch voltage u(t) = v(t) + v_steady (v the node's change while the switch is
+/// open), so no current flows; from `at` it falls linearly from u(at) to 0 over the closing
+/// time (0: at once), the switch a voltage that collapses as a closing switch's does, and the
+/// same ramp the deck's switch follows (emit/deck.h); then it stays 0. As the network's steady
+/// state is taken out apart, the source is e(t) - v_steady:
+///   E = T[(v - v0) 1(t < at)] + v0/s - (v0 + v_steady) L{1(t >= at)} + u(at) L{q},
+/// q(t) = 1(t >= at) (1 - (t - at)/closing)^+ the ramp down. `initial` is v(0+) per column: the
+/// jump at t = 0 is taken out before inverting (it would ring) and put back in closed form.
 Eigen::MatrixXcd compensation_source(LaplaceInverter& inverter, const NodeSpectra& open_voltage,
                                      const Eigen::RowVectorXd& steady,
                                      const Eigen::RowVectorXd& initial, double at,
-                                     double transition) {
+                                     double closing, Eigen::RowVectorXd& voltage_at) {
   const LaplaceGrid& grid = inverter.grid();
   const Eigen::Index k_count = static_cast<Eigen::Index>(grid.frequencies);
   Eigen::MatrixXcd e(k_count, open_voltage.cols());
+  voltage_at.resize(open_voltage.cols());
   std::vector<double> g;
+  std::vector<double> undamped;
   std::vector<Complex> part;
   std::vector<Complex> column(grid.frequencies);
-  // 1 - w(t): a ramp from `at` over the transition, or a step at `at`.
-  KinkedWave released;
-  if (transition > 0.0)
-    released.kinks = {{at, 0.0, 1.0 / transition}, {at + transition, 0.0, -1.0 / transition}};
-  else
-    released.kinks = {{at, 1.0, 0.0}};
+  KinkedWave after;
+  after.kinks = {{at, 1.0, 0.0}};
+  KinkedWave falling;
+  if (closing > 0.0)
+    falling.kinks = {{at, 1.0, -1.0 / closing}, {at + closing, 0.0, 1.0 / closing}};
+  const double h = grid.time_step();
   for (Eigen::Index c = 0; c < open_voltage.cols(); ++c) {
     for (Eigen::Index k = 0; k < k_count; ++k)
       column[static_cast<std::size_t>(k)] =
           open_voltage(k, c) - initial(c) * reciprocal(grid.s(static_cast<std::size_t>(k)));
     inverter.damped(column, grid.frequencies, g);
-    inverter.transform_until(g, at, transition, part);
+    inverter.transform_until(g, at, 0.0, part);
+    // u(at): the samples' linear interpolant at `at`, undamped.
+    undamped.resize(g.size());
+    inverter.undamp(g, undamped);
+    const std::size_t j = std::min(static_cast<std::size_t>(at / h), undamped.size() - 2);
+    const double f = at / h - static_cast<double>(j);
+    const double v_at = (1.0 - f) * undamped[j] + f * undamped[j + 1];
+    voltage_at(c) = v_at + initial(c) + steady(c);
     for (Eigen::Index k = 0; k < k_count; ++k) {
       const Complex s = grid.s(static_cast<std::size_t>(k));
       Complex value = part[static_cast<std::size_t>(k)];
       if (initial(c) != 0.0) value += initial(c) * reciprocal(s);
       if (steady(c) + initial(c) != 0.0)
-        value -= (steady(c) + initial(c)) * laplace_transform(released, s);
+        value -= (steady(c) + initial(c)) * laplace_transform(after, s);
+      if (closing > 0.0 && voltage_at(c) != 0.0)
+        value += voltage_at(c) * laplace_transform(falling, s);
       e(k, c) = value;
     }
   }
   return e;
 }
 
-/// The shortest 0-100 % ramp of any drive (rise/0.8), s; infinite when none has a rise time.
-double fastest_ramp(const physics::Circuit& circuit) {
+double closing_of(const ReferenceOptions& options, std::size_t load) {
+  return load < options.closing.size() ? std::max(0.0, options.closing[load]) : 0.0;
+}
+
+/// The shortest 0-100 % ramp of any drive (rise/0.8) or switch closing, s; infinite when there
+/// is none.
+double fastest_ramp(const physics::Circuit& circuit, const ReferenceOptions& options) {
   double fastest = std::numeric_limits<double>::infinity();
+  for (const double closing : options.closing)
+    if (closing > 0.0) fastest = std::min(fastest, closing);
   for (const physics::Drive& d : circuit.drives) {
     const std::optional<double> rise = d.rise ? d.rise : circuit.settings.rise;
     if (rise && *rise > 0.0) fastest = std::min(fastest, *rise / 0.8);
@@ -160,6 +183,8 @@ Response frequency_response(const physics::Circuit& circuit,
   network.solve(Complex(s_big, 0.0), 0, compensation, v);
   const Eigen::MatrixXd initial = (s_big * v).real();
   std::vector<Eigen::MatrixXcd> sources_of_switch;  // per active switch: K x m
+  std::vector<double> switch_voltages;               // per active switch: u(at), all sources
+  Eigen::RowVectorXd voltage_at;
   // Final spectra, laid out per (source, node) with the K frequencies contiguous.
   std::vector<Complex>& spectra = work.spectra();
   spectra.assign(kk * n * m, Complex(0.0, 0.0));
@@ -182,12 +207,15 @@ Response frequency_response(const physics::Circuit& circuit,
             v.row(static_cast<Eigen::Index>(switches[stage].node));
       }
     }
-    if (!last)
+    if (!last) {
       sources_of_switch.push_back(
           compensation_source(inverter, at_switch,
                               network.steady().row(static_cast<Eigen::Index>(switches[stage].node)),
                               initial.row(static_cast<Eigen::Index>(switches[stage].node)),
-                              switches[stage].at, options.switch_transition));
+                              switches[stage].at, closing_of(options, switches[stage].load),
+                              voltage_at));
+      switch_voltages.push_back(voltage_at.sum());
+    }
   }
 
   Response r;
@@ -195,6 +223,7 @@ Response frequency_response(const physics::Circuit& circuit,
   r.nodes = network.nodes();
   r.sources = network.sources();
   r.switches = network.switches();
+  r.switch_voltages = std::move(switch_voltages);
   r.initial = network.initial();
   const double h = grid.time_step();
   const std::size_t samples =
@@ -244,7 +273,7 @@ Response frequency_response(const physics::Circuit& circuit,
 
 LaplaceGrid initial_reference_grid(const physics::Circuit& circuit,
                                    const ReferenceOptions& options) {
-  const double ramp = fastest_ramp(circuit);
+  const double ramp = fastest_ramp(circuit, options);
   const double period = 2.0 * options.window;
   // A corner where the slope changes by J, cut off at the band B = K/P, is rounded by about
   // J/(2 pi^2 B) (the Abel mean of the Dirichlet kernel's first moment). A ramp of the full

@@ -23,9 +23,11 @@ struct ReferenceOptions {
   /// must keep the reference under a tenth of its tolerance should ask for a twentieth.
   double target = 1e-3;
   InitialState initial = InitialState::automatic;
-  /// s: a switched load's compensation source falls to zero over this time instead of at once,
-  /// a switch that closes over a ramp rather than ideally (0: ideal, as the characteristics run).
-  double switch_transition = 0.0;
+  /// s, parallel to circuit.loads: the closing time of each switched load, over which the
+  /// switch's voltage falls linearly from its open value to zero (compensation_source in the
+  /// .cpp; the deck's switch does the same). Missing or 0: the switch closes at once, as an
+  /// ideal switch and the method of characteristics do.
+  std::vector<double> closing;
   std::size_t min_frequencies = 256;
   std::size_t max_frequencies = std::size_t{1} << 17;
   std::size_t oversample = 2;
@@ -53,6 +55,9 @@ struct Response {
   std::vector<std::string> nodes;
   std::vector<Source> sources;
   std::vector<Switch> switches;
+  /// V, per switch that closes inside the window (in closing order): its open voltage at the
+  /// moment it closes, all sources together.
+  std::vector<double> switch_voltages;
   InitialState initial = InitialState::settled;
   /// v[source][node][j], V: the voltage each source causes, its steady part included.
   std::vector<std::vector<std::vector<double>>> v;
