@@ -2,10 +2,15 @@
 #include "plan/verify.h"
 
 #include <algorithm>
+#include <atomic>
 #include <cmath>
+#include <exception>
 #include <limits>
 #include <map>
+#include <mutex>
+#include <numeric>
 #include <stdexcept>
+#include <thread>
 
 #include "physics/resolve.h"
 #include "plan/ladder_error.h"
@@ -36,6 +41,37 @@ std::vector<LadderSpec> ladder_specs(const Plan& plan, bool rule) {
 }
 
 namespace {
+
+/// Calls f(item, workspace) for every item on up to `threads` threads (the caller one of them),
+/// each thread with a workspace of its own; the first exception a task throws is thrown again
+/// once all have stopped. Tasks must touch only what belongs to their item.
+template <class F>
+void for_each_item(const std::vector<std::size_t>& items, unsigned threads, F&& f) {
+  const unsigned count =
+      static_cast<unsigned>(std::clamp<std::size_t>(items.size(), 1, std::max(1u, threads)));
+  std::atomic<std::size_t> next{0};
+  std::exception_ptr failure;
+  std::mutex failure_lock;
+  const auto work = [&] {
+    sim::ResponseWorkspace ws;
+    for (std::size_t i = next++; i < items.size(); i = next++) {
+      try {
+        f(items[i], ws);
+      } catch (...) {
+        const std::lock_guard<std::mutex> hold(failure_lock);
+        if (!failure) failure = std::current_exception();
+        next = items.size();
+      }
+    }
+  };
+  std::vector<std::thread> pool;
+  for (unsigned t = 1; t < count; ++t) pool.emplace_back(work);
+  work();
+  for (std::thread& t : pool) t.join();
+  if (failure) std::rethrow_exception(failure);
+}
+
+unsigned worker_count() { return std::max(1u, std::thread::hardware_concurrency()); }
 
 bool meets(double error, double accuracy, double tolerance) {
   return error + accuracy <= tolerance;
@@ -212,7 +248,7 @@ Verification verify_part(const physics::Circuit& circuit, const Plan& plan) {
 }
 
 std::pair<Plan, Verification> plan_verified_part(const physics::Circuit& circuit,
-                                                 const Plan& analytic) {
+                                                 const Plan& analytic, unsigned threads) {
   Plan plan = analytic;
   const sim::ReferenceOptions o = reference_options(plan);
   sim::ResponseWorkspace ws;
@@ -224,11 +260,12 @@ std::pair<Plan, Verification> plan_verified_part(const physics::Circuit& circuit
     if (!plan.lines[j].fixed && plan.lines[j].rise > 0.0) adjustable.push_back(j);
   std::vector<Measurements> seen(n);
   std::vector<double> share(n, 1.0);  // of each line's tolerance, its budget alone
-  for (const std::size_t k : adjustable) {
+  // Each line alone: the searches share nothing but the reference, so they run side by side.
+  for_each_item(adjustable, threads, [&](std::size_t k, sim::ResponseWorkspace& own) {
     LinePlan& lp = plan.lines[k];
     set_sections(circuit.lines[k], lp,
-                 search_line(circuit, exact, o, ws, k, lp, lp.tolerance, seen[k], true));
-  }
+                 search_line(circuit, exact, o, own, k, lp, lp.tolerance, seen[k], true));
+  });
 
   // Together: a line may pass alone and fail beside the others' ladders, whose errors add at
   // the nodes they share.
@@ -266,16 +303,20 @@ std::pair<Plan, Verification> plan_verified_part(const physics::Circuit& circuit
     }
     if (!failing) break;
     const double factor = std::clamp(ratio, 0.5, 0.9);
-    bool raised = false;
-    for (const std::size_t j : adjustable) {
-      if (!tighten[j]) continue;
+    std::vector<std::size_t> again;
+    for (const std::size_t j : adjustable)
+      if (tighten[j]) again.push_back(j);
+    std::vector<int> before(n);
+    for (std::size_t j = 0; j < n; ++j) before[j] = plan.lines[j].sections;
+    for_each_item(again, threads, [&](std::size_t j, sim::ResponseWorkspace& own) {
       share[j] *= factor;
       LinePlan& lp = plan.lines[j];
-      const int before = lp.sections;
       set_sections(circuit.lines[j], lp,
-                   search_line(circuit, exact, o, ws, j, lp, share[j] * lp.tolerance, seen[j], false));
-      raised = raised || lp.sections != before;
-    }
+                   search_line(circuit, exact, o, own, j, lp, share[j] * lp.tolerance, seen[j],
+                               false));
+    });
+    bool raised = false;
+    for (std::size_t j = 0; j < n; ++j) raised = raised || plan.lines[j].sections != before[j];
     if (raised) v = verify_against(circuit, plan, exact, o, ws, false);
   }
   v = verify_against(circuit, plan, exact, o, ws);
@@ -322,8 +363,14 @@ Verification verify_plan(const physics::Circuit& circuit, const Plan& plan) {
   Verification v;
   v.lines.resize(circuit.lines.size());
   v.reference_within_target = true;
-  for (const CircuitPart& part : circuit_parts(circuit))
-    merge_part(part, verify_part(part.circuit, part_plan(plan, part)), v);
+  const std::vector<CircuitPart> parts = circuit_parts(circuit);
+  std::vector<Verification> verdicts(parts.size());
+  std::vector<std::size_t> items(parts.size());
+  std::iota(items.begin(), items.end(), std::size_t{0});
+  for_each_item(items, worker_count(), [&](std::size_t i, sim::ResponseWorkspace&) {
+    verdicts[i] = verify_part(parts[i].circuit, part_plan(plan, parts[i]));
+  });
+  for (std::size_t i = 0; i < parts.size(); ++i) merge_part(parts[i], verdicts[i], v);
   return v;
 }
 
@@ -335,10 +382,19 @@ std::pair<Plan, Verification> plan_verified(const physics::Circuit& circuit,
   Verification v;
   v.lines.resize(circuit.lines.size());
   v.reference_within_target = true;
-  for (const CircuitPart& part : circuit_parts(circuit)) {
-    auto [p, pv] = plan_verified_part(part.circuit, part_plan(analytic, part));
-    merge_part(part, p, plan);
-    merge_part(part, pv, v);
+  // Parts side by side when there are several, else the lines of the one part.
+  const std::vector<CircuitPart> parts = circuit_parts(circuit);
+  const unsigned threads = worker_count();
+  std::vector<std::pair<Plan, Verification>> done(parts.size());
+  std::vector<std::size_t> items(parts.size());
+  std::iota(items.begin(), items.end(), std::size_t{0});
+  for_each_item(items, parts.size() > 1 ? threads : 1, [&](std::size_t i, sim::ResponseWorkspace&) {
+    done[i] = plan_verified_part(parts[i].circuit, part_plan(analytic, parts[i]),
+                                 parts.size() > 1 ? 1 : threads);
+  });
+  for (std::size_t i = 0; i < parts.size(); ++i) {
+    merge_part(parts[i], done[i].first, plan);
+    merge_part(parts[i], done[i].second, v);
   }
   plan.elements = 0;
   for (const LinePlan& lp : plan.lines) plan.elements += lp.elements;
