@@ -106,6 +106,25 @@ TEST_CASE("rungs check: exit 0 for adequate ladders, 1 with a reason a line othe
   auto rule = run_rungs("check -", open_line(" sections=10"));
   CHECK(rule.exit_code == 1);
   CHECK(run_rungs("check -", "line t a -> b coax\n").exit_code == 2);
+  // Unfixed, the verified planner's own count (12) passes; the analytic estimate's (7 here)
+  // does not, and check --analytic checks those.
+  CHECK(run_rungs("check -", open_line("")).exit_code == 0);
+  auto analytic = run_rungs("check --analytic -", open_line(""));
+  CHECK(analytic.exit_code == 1);
+  CHECK(analytic.out.rfind("line t: 7 sections err ", 0) == 0);
+}
+
+TEST_CASE("rungs check: a line failed by a fixed neighbour's ladder says so") {
+  // Two 50 ohm lines in cascade; the first is fixed far too short (3 sections at delay/rise
+  // 1, against issue 4's 12), so the error it makes at the shared node fails the second line
+  // whatever count that one gets.
+  auto r = run_rungs("check -", "line f a -> m ideal z0=50ohm delay=1ns sections=3\n"
+                                "line s m -> b ideal z0=50ohm delay=1ns\n"
+                                "drive a step 0V to 1V rise=1ns source=50ohm\nload b 50ohm\n");
+  CHECK(r.exit_code == 1);
+  CHECK(r.out.find("line f: 3 sections err ") != std::string::npos);
+  CHECK(r.out.find("line s: ") != std::string::npos);
+  CHECK(r.out.find("the fixed sections= of f cause it") != std::string::npos);
 }
 
 TEST_CASE("rungs plan (verified by default) finds the smallest adequate count") {
