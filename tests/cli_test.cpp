@@ -124,7 +124,11 @@ TEST_CASE("rungs check: a line failed by a fixed neighbour's ladder says so") {
   CHECK(r.exit_code == 1);
   CHECK(r.out.find("line f: 3 sections err ") != std::string::npos);
   CHECK(r.out.find("line s: ") != std::string::npos);
+  CHECK(r.out.find("line s: ") != std::string::npos);
   CHECK(r.out.find("the fixed sections= of f cause it") != std::string::npos);
+  CHECK(r.out.find("line f: 3 sections err ") < r.out.find("line s: "));
+  // Only the line that did not choose its count is told where the error comes from.
+  CHECK(r.out.find("cause it") > r.out.find("line s: "));
 }
 
 TEST_CASE("rungs plan (verified by default) finds the smallest adequate count") {

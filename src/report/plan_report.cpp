@@ -208,10 +208,10 @@ std::vector<std::string> inadequate_lines(const physics::Circuit& circuit, const
                               "budget",
                               circuit.lines[i].name, plan.lines[i].sections, percent(v.error),
                               percent(verification.accuracy), percent(plan.lines[i].tolerance)));
-    if (v.owed_to_fixed) {
+    if (v.owed_to_fixed && !plan.lines[i].fixed) {
       std::string fixed;
       for (std::size_t j = 0; j < circuit.lines.size(); ++j)
-        if (plan.lines[j].fixed) fixed += fmt::format("{}{}", fixed.empty() ? "" : ", ", circuit.lines[j].name);
+        if (plan.lines[j].fixed && j != i) fixed += fmt::format("{}{}", fixed.empty() ? "" : ", ", circuit.lines[j].name);
       out.back() += fmt::format("; it fails with every planned line exact, so the fixed "
                                 "sections= of {} cause it: raise or remove them",
                                 fixed);
