@@ -218,6 +218,41 @@ TEST_CASE("a charged line discharging through a switched load agrees with charac
   check_against_characteristics(c, 8e-9, 10.0);
 }
 
+TEST_CASE("a switch that closes over a ramp lets the line's end fall along it") {
+  // A line charged to V0 = 10 V, switched into its own impedance through a switch whose
+  // voltage falls linearly from V0 to 0 over tau. Until the discharge wave returns (2T after
+  // closing), the line's end is a source V0 behind Z0 (lattice diagram; e.g. Hayt & Buck,
+  // 8th ed., sec. 10.13 for the charged line), so the current is (V0 - e(t))/(2 Z0) with
+  // e(t) = V0 (1 - (t - t0)/tau): the end falls linearly from V0 to V0/2 over tau, then holds.
+  Circuit c;
+  Line pfl = line("pfl", "far", "sw", 50.0, 10e-9);
+  pfl.charged = 10.0;
+  c.lines.push_back(pfl);
+  rungs::physics::LoadNetwork open;
+  open.kind = NetworkKind::open;
+  c.loads.push_back(load("far", open));
+  Load switched = load("sw", element(ElementKind::resistor, 50.0));
+  const double t0 = 5e-9, tau = 2e-9;
+  switched.at = t0;
+  c.loads.push_back(switched);
+  ReferenceOptions o = options(30e-9);
+  o.closing = {0.0, tau};
+  const Response r = exact_reference(c, o);
+  CHECK(r.accuracy.within_target);
+  REQUIRE(r.switch_voltages.size() == 1);
+  CHECK(r.switch_voltages[0] == Approx(10.0).epsilon(1e-3));  // the open voltage at t0
+  const auto w = r.total();
+  const auto* end = rungs::sim::find_node(w, "sw");
+  REQUIRE(end != nullptr);
+  for (const double f : {0.0, 0.25, 0.5, 0.75, 1.0, 2.0, 5.0}) {
+    const double t = t0 + f * tau;
+    const std::size_t j = static_cast<std::size_t>(std::lround(t / (w.t[1] - w.t[0])));
+    const double expected = f < 1.0 ? 10.0 - 5.0 * f : 5.0;
+    INFO("at t0 + " << f << " tau");
+    CHECK(std::abs(end->v[j] - expected) < 0.01);  // 0.1 % of V0
+  }
+}
+
 TEST_CASE("a zero-resistance drive, shorts and a line end on ground agree with characteristics") {
   Circuit c;
   c.lines.push_back(line("feed", "a", "b", 50.0, 1e-9));
