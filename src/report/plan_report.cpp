@@ -186,16 +186,27 @@ std::string plan_json(const physics::Circuit& circuit, const plan::Plan& plan,
 
 std::string plan_summary(const physics::Circuit& circuit, const plan::Plan& plan,
                          const plan::Verification* verification) {
-  double worst = 0.0;
-  if (verification) {
-    for (const plan::LineVerdict& v : verification->lines) worst = std::max(worst, v.error);
-  } else {
+  const std::string head =
+      fmt::format("{}: {} line{}, {} ladder elements", circuit.name, circuit.lines.size(),
+                  circuit.lines.size() == 1 ? "" : "s", plan.elements);
+  if (!verification) {
+    double worst = 0.0;
     for (const plan::LinePlan& lp : plan.lines) worst = std::max(worst, lp.predicted_error);
+    return fmt::format("{}, predicted error at most {} (not measured: --analytic)", head,
+                       percent(worst));
   }
-  return fmt::format("{}: {} line{}, {} ladder elements, {} error at most {} (budget {})",
-                     circuit.name, circuit.lines.size(), circuit.lines.size() == 1 ? "" : "s",
-                     plan.elements, verification ? "measured" : "predicted", percent(worst),
-                     percent(circuit.settings.tolerance));
+  double worst = 0.0;
+  std::size_t failing = 0;
+  for (const plan::LineVerdict& v : verification->lines) {
+    worst = std::max(worst, v.error);
+    failing += v.adequate ? 0 : 1;
+  }
+  if (failing == 0)
+    return fmt::format("{}, every line within its budget (largest measured error {})", head,
+                       percent(worst));
+  return fmt::format("{}, {} line{} over budget (largest measured error {}; rungs check says "
+                     "which)",
+                     head, failing, failing == 1 ? "" : "s", percent(worst));
 }
 
 std::vector<std::string> inadequate_lines(const physics::Circuit& circuit, const plan::Plan& plan,
