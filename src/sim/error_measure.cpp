@@ -53,22 +53,27 @@ WaveformError compare_waveforms(std::span<const double> t, std::span<const doubl
   const double scale = 1.0 / std::abs(swing);
   WaveformError w;
   std::size_t peak = 0;
+  // The extremes of both changes either way, in the same pass: the direction is known only at
+  // the end.
+  double exact_up = 0.0, exact_down = 0.0, ladder_up = 0.0, ladder_down = 0.0;
   for (std::size_t j = 0; j < t.size(); ++j) {
     const double e = std::abs(ladder[j] - exact[j]) * scale;
     if (e > w.error) {
       w.error = e;
       w.at = t[j];
     }
-    if (std::abs(exact[j] - exact[0]) > std::abs(exact[peak] - exact[0])) peak = j;
+    const double de = exact[j] - exact[0];
+    const double dl = ladder[j] - ladder[0];
+    if (std::abs(de) > std::abs(exact[peak] - exact[0])) peak = j;
+    exact_up = std::max(exact_up, de);
+    exact_down = std::min(exact_down, de);
+    ladder_up = std::max(ladder_up, dl);
+    ladder_down = std::min(ladder_down, dl);
   }
   const double change = exact[peak] - exact[0];
   const double sign = change >= 0.0 ? 1.0 : -1.0;
-  double peak_exact = 0.0;
-  double peak_ladder = 0.0;
-  for (std::size_t j = 0; j < t.size(); ++j) {
-    peak_exact = std::max(peak_exact, sign * (exact[j] - exact[0]));
-    peak_ladder = std::max(peak_ladder, sign * (ladder[j] - ladder[0]));
-  }
+  const double peak_exact = sign > 0.0 ? exact_up : -exact_down;
+  const double peak_ladder = sign > 0.0 ? ladder_up : -ladder_down;
   w.overshoot_error = (peak_ladder - peak_exact) * scale;
   const double top = first_edge_top(t, exact, sign, std::abs(change));
   if (std::abs(top) * scale >= 0.01) {

@@ -97,15 +97,19 @@ void LaplaceInverter::damped(std::span<const Complex> spectrum, std::size_t used
                              std::vector<double>& g) {
   const std::size_t m = grid_.fft_size();
   used = std::min({used, spectrum.size(), grid_.frequencies});
-  std::fill(half_.begin(), half_.end(), Complex(0.0, 0.0));
   // The real inverse FFT sums X_0 + 2 Re sum_{k>0} X_k e^{i 2 pi k j / M} over the half
-  // spectrum: the series of the header, cut after `used` terms.
-  std::copy(spectrum.begin(), spectrum.begin() + static_cast<std::ptrdiff_t>(used), half_.begin());
+  // spectrum: the series of the header, cut after `used` terms. The 1/P is applied to the
+  // `used` terms rather than to the M samples, and only what an earlier call left past them
+  // is cleared (the rest of the half spectrum stays zero from one call to the next).
+  const double scale = 1.0 / grid_.period;
+  for (std::size_t k = 0; k < used; ++k) half_[k] = scale * spectrum[k];
+  if (nonzero_ > used)
+    std::fill(half_.begin() + static_cast<std::ptrdiff_t>(used),
+              half_.begin() + static_cast<std::ptrdiff_t>(nonzero_), Complex(0.0, 0.0));
+  nonzero_ = used;
   half_[0] = half_[0].real();
   g.resize(m);
   fft_->fft.inv(g.data(), half_.data(), static_cast<Eigen::DenseIndex>(m));
-  const double scale = 1.0 / grid_.period;
-  for (double& x : g) x *= scale;
 }
 
 void LaplaceInverter::undamp(std::span<const double> g, std::span<double> out) const {
@@ -137,6 +141,7 @@ void LaplaceInverter::transform_until(std::span<const double> g, double cut, dou
     real_[j] = g[j] * w;
   }
   fft_->fft.fwd(half_.data(), real_.data(), static_cast<Eigen::DenseIndex>(m));
+  nonzero_ = half_.size();
   const double dw = 2.0 * std::numbers::pi / grid_.period;
   const double tm = h * static_cast<double>(last_full);
   const double delta = cut - tm;  // the part of the last interval before the cut, no transition

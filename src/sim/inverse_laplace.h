@@ -74,6 +74,7 @@ class LaplaceInverter {
   std::unique_ptr<Fft> fft_;
   std::vector<double> growth_;  // e^{sigma t_j}
   std::vector<std::complex<double>> half_;
+  std::size_t nonzero_ = 0;  // half_[k] may be non-zero only for k < nonzero_
   std::vector<double> real_;
 };
 

@@ -53,6 +53,28 @@ LosslessRoots lossless_roots(const LineTotals& line, int sections, Complex s) {
   return r;
 }
 
+/// coth(w) and csch(w) from e = e^-w, Re w >= 0: the decaying form, |e^-2w| <= 1, so nothing
+/// overflows however large Re w grows; beyond Re w of about 700 the csch underflows to zero and
+/// the coth rounds to one, their limits. 1 - e^-2w is formed directly: the caller makes sure it
+/// does not cancel.
+CothCsch coth_csch_of_decay(Complex e) {
+  const Complex x = e * e;
+  const Complex inverse = reciprocal(1.0 - x);
+  return {(1.0 + x) * inverse, 2.0 * e * inverse};
+}
+
+/// z^n for n >= 1 by repeated squaring: about 2 log2(n) products, each rounding once, so the
+/// relative error grows as n times a rounding error, as that of exp(n log z) does.
+Complex integer_power(Complex z, long long n) {
+  Complex result(1.0, 0.0);
+  for (;;) {
+    if (n & 1) result *= z;
+    n >>= 1;
+    if (n == 0) return result;
+    z *= z;
+  }
+}
+
 }  // namespace
 
 LineTotals line_totals(const physics::Line& line) {
@@ -90,14 +112,9 @@ CothCsch coth_csch(Complex w) {
     const Complex inverse = reciprocal(std::sinh(w));
     return {std::cosh(w) * inverse, inverse};
   }
-  // The decaying form: |e^-2w| <= 1, so nothing overflows however large Re w grows; beyond
-  // Re w of about 700 the csch underflows to zero and the coth rounds to one, their limits.
   // With |w| >= 1, 1 - e^-2w is at least about 2 Re w, so forming it directly loses no more
   // than a rounding error relative to that.
-  const Complex e = std::exp(-w);
-  const Complex x = e * e;
-  const Complex inverse = reciprocal(1.0 - x);
-  return {(1.0 + x) * inverse, 2.0 * e * inverse};
+  return coth_csch_of_decay(std::exp(-w));
 }
 
 Abcd line_abcd(const LineTotals& line, Complex s) {
@@ -174,16 +191,26 @@ Admittance ladder_admittance(const LineTotals& line, LadderSpec ladder, Complex 
     cosh_half = r.cosh_half;
     root_ratio = r.root_y * reciprocal(r.root_z);
   }
-  // asinh(q) = log(q + sqrt(1 + q^2)); with cosh(theta/2) = sqrt(1 + q^2) at hand the log
-  // saves the library's second root. |q + cosh(theta/2)| >= 1 for Re q >= 0, so the sum does
-  // not cancel; near q = 0 the log of a number near 1 loses digits, and asinh's series is used.
-  const Complex theta = 2.0 * (std::norm(q) < 1e-6 ? std::asinh(q) : std::log(q + cosh_half));
   // 1/Zi from sinh(theta) = 2 q cosh(theta/2) = sqrt(Z) sqrt(Y) cosh(theta/2): the pi section's
   // Z/sinh(theta) and the T section's sinh(theta)/Y without forming 1 + ZY/4, which cancels
   // near cutoff.
   const Complex y_image = ladder.shape == physics::Shape::t ? root_ratio * reciprocal(cosh_half)
                                                             : root_ratio * cosh_half;
-  const CothCsch h = coth_csch(static_cast<double>(ladder.sections) * theta);
+  // e^{theta/2} = q + cosh(theta/2), as asinh(q) = log(q + sqrt(1 + q^2)), of magnitude at
+  // least 1 for Re q >= 0, so e^{-N theta} = (q + cosh(theta/2))^{-2N}: an integer power of a
+  // number of magnitude at most 1, a dozen products for a thousand sections instead of a complex
+  // log and exp, none of which can overflow. It serves where coth_csch takes the decaying form,
+  // |N theta| >= 1, which |theta/2| >= asinh|q| >= |q|/(1 + |q|) guarantees here.
+  const double n = static_cast<double>(ladder.sections);
+  const double size = std::sqrt(std::norm(q));
+  CothCsch h;
+  if (2.0 * n * size >= 1.0 + size) {
+    h = coth_csch_of_decay(integer_power(reciprocal(q + cosh_half), 2LL * ladder.sections));
+  } else {
+    // Near q = 0 the log of a number near 1 loses digits, and asinh's series is used.
+    const Complex theta = 2.0 * (std::norm(q) < 1e-6 ? std::asinh(q) : std::log(q + cosh_half));
+    h = coth_csch(n * theta);
+  }
   Admittance a{h.coth * y_image, -h.csch * y_image, h.coth * y_image};
   if (ladder.shape == physics::Shape::l) {
     // (Z, Y)^N = shunt(-Y/2) (pi section)^N shunt(+Y/2): the near port loses the pi ladder's
