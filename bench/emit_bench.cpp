@@ -16,24 +16,19 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include "bench_support.h"
 #include "emit/deck.h"
 #include "emit/sha256.h"
 #include "emit/templates.h"
-#include "physics/resolve.h"
 #include "plan/plan.h"
-#include "syntax/diagnostics.h"
-#include "syntax/parser.h"
 
 namespace {
 
 namespace fs = std::filesystem;
+using rungs::bench::Planned;
+using rungs::bench::scratch;
 
 constexpr int kLines = 1000;
-
-fs::path& scratch() {
-  static fs::path dir;
-  return dir;
-}
 
 /// Sections a line so that kLines pi ladders (2N + 1 elements each) hold about `elements`.
 int sections_for(long long elements) {
@@ -57,35 +52,14 @@ std::string design_text(int sections) {
   return text;
 }
 
-/// A design read, resolved and planned once, for the in-process benchmark.
-struct Planned {
-  rungs::syntax::SourceFile file;
-  rungs::physics::Circuit circuit;
-  rungs::plan::Plan plan;
-};
-
 /// Only the current size is kept, so that the memory figures of a size do not include the
 /// designs of the sizes before it.
 const Planned& planned(int sections) {
   static std::unique_ptr<Planned> current;
   if (current && current->plan.lines.front().sections == sections) return *current;
   current.reset();
-  auto p = std::make_unique<Planned>();
-  p->file = {"bench_board.rungs", design_text(sections)};
-  rungs::syntax::Diagnostics diagnostics(p->file);
-  const auto description = rungs::syntax::parse_description(diagnostics);
-  p->circuit = rungs::physics::resolve(description, diagnostics);
-  if (!diagnostics.has_errors()) p->plan = rungs::plan::plan_circuit(p->circuit, diagnostics);
-  if (diagnostics.has_errors()) {
-    std::fputs(diagnostics.render().c_str(), stderr);
-    std::abort();
-  }
-  current = std::move(p);
+  current = rungs::bench::read_and_plan("bench_board.rungs", design_text(sections));
   return *current;
-}
-
-double peak_rss_mib(const rusage& usage) {
-  return static_cast<double>(usage.ru_maxrss) / 1024.0;
 }
 
 /// write_deck into a file, after parsing, resolving and planning outside the timing.
@@ -102,8 +76,6 @@ void BM_write_deck(benchmark::State& state) {
     if (!error.empty() || !file) state.SkipWithError("write_deck failed");
     bytes = fs::file_size(out);
   }
-  rusage usage{};
-  getrusage(RUSAGE_SELF, &usage);
   const double elements = static_cast<double>(p.plan.elements);
   state.counters["elements"] = elements;
   state.counters["elements_per_second"] =
@@ -111,7 +83,7 @@ void BM_write_deck(benchmark::State& state) {
   state.counters["deck_MB"] = static_cast<double>(bytes) / 1e6;
   // The process's high-water mark so far: the sizes run smallest first, so growth with the
   // section count would show here as a rising figure.
-  state.counters["peak_rss_MiB"] = peak_rss_mib(usage);
+  state.counters["peak_rss_MiB"] = rungs::bench::peak_rss_mib();
 }
 
 /// Runs `argv` and prints its peak resident memory in KiB. Called as a fresh process
@@ -131,13 +103,15 @@ int peak_rss_of(char** argv) {
   return WIFEXITED(status) ? WEXITSTATUS(status) : 125;
 }
 
-/// `rungs emit FILE -o OUT -q` end to end: reading, planning, writing, renaming into place.
+/// `rungs emit FILE --analytic -o OUT -q` end to end: reading, planning, writing, renaming into
+/// place. --analytic, because the verified planner (emit's default) would measure every line
+/// against the exact reference first, which verify_bench times on its own.
 void BM_rungs_emit(benchmark::State& state) {
   const int sections = sections_for(state.range(0));
   const fs::path input = scratch() / ("board_" + std::to_string(sections) + ".rungs");
   const fs::path out = scratch() / "binary.cir";
   std::ofstream(input, std::ios::binary) << design_text(sections);
-  const std::string command = fmt::format("'{}' --peak-rss-of '{}' emit '{}' -q -o '{}'",
+  const std::string command = fmt::format("'{}' --peak-rss-of '{}' emit '{}' --analytic -q -o '{}'",
                                           fs::read_symlink("/proc/self/exe").string(), RUNGS_BINARY,
                                           input.string(), out.string());
   double child_peak = 0.0;
@@ -176,21 +150,5 @@ BENCHMARK(BM_rungs_emit)
 
 int main(int argc, char** argv) {
   if (argc >= 3 && std::string(argv[1]) == "--peak-rss-of") return peak_rss_of(argv + 2);
-  // Scratch decks go to RUNGS_BENCH_DIR if set (a disk, not a RAM-backed /tmp, measures the
-  // file system too), else to a fresh folder under the temporary folder; removed at the end.
-  const char* where = std::getenv("RUNGS_BENCH_DIR");
-  std::string pattern =
-      ((where ? fs::path(where) : fs::temp_directory_path()) / "rungs_bench_XXXXXX").string();
-  if (!mkdtemp(pattern.data())) {
-    std::perror("rungs bench: cannot make a scratch folder");
-    return 1;
-  }
-  scratch() = pattern;
-  benchmark::Initialize(&argc, argv);
-  if (benchmark::ReportUnrecognizedArguments(argc, argv)) return 1;
-  benchmark::RunSpecifiedBenchmarks();
-  benchmark::Shutdown();
-  std::error_code ec;
-  fs::remove_all(scratch(), ec);
-  return 0;
+  return rungs::bench::run_benchmarks(argc, argv);
 }
