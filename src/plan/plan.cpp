@@ -117,36 +117,7 @@ void set_sections(const physics::Line& line, LinePlan& lp, int sections) {
   lp.elements = ladder_elements(sections, lp.shape, lp.section_r > 0.0, lp.section_g > 0.0);
 }
 
-std::vector<CircuitPart> circuit_parts(const Circuit& circuit) {
-  Components components(circuit);
-  std::vector<CircuitPart> parts;
-  std::map<int, std::size_t> index;  // component -> parts
-  const auto part_of = [&](const std::string& node) -> CircuitPart* {
-    auto it = index.find(components.of(node));
-    return it == index.end() ? nullptr : &parts[it->second];
-  };
-  for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
-    const int c = components.of(circuit.lines[k].near);
-    auto [it, fresh] = index.emplace(c, parts.size());
-    if (fresh) {
-      parts.emplace_back();
-      parts.back().circuit.name = circuit.name;
-      parts.back().circuit.settings = circuit.settings;
-    }
-    parts[it->second].circuit.lines.push_back(circuit.lines[k]);
-    parts[it->second].lines.push_back(k);
-  }
-  for (const physics::Drive& d : circuit.drives)
-    if (CircuitPart* p = part_of(d.node)) p->circuit.drives.push_back(d);
-  for (std::size_t i = 0; i < circuit.loads.size(); ++i)
-    if (CircuitPart* p = part_of(circuit.loads[i].node)) {
-      p->circuit.loads.push_back(circuit.loads[i]);
-      p->loads.push_back(i);
-    }
-  return parts;
-}
-
-Plan part_plan(const Plan& whole, const CircuitPart& part) {
+Plan part_plan(const Plan& whole, const sim::CircuitPart& part) {
   Plan p;
   p.window = whole.window;
   p.time_step = whole.time_step;

@@ -4,6 +4,7 @@
 #include <vector>
 
 #include "physics/circuit.h"
+#include "sim/frequency_parts.h"
 #include "syntax/diagnostics.h"
 
 namespace rungs::plan {
@@ -60,20 +61,8 @@ void set_sections(const physics::Line& line, LinePlan& plan, int sections);
 /// bounds it.
 double deck_time_step(const physics::Circuit& circuit, const Plan& plan);
 
-/// One connected part of a circuit (line ends joined through lines) as a circuit of its own:
-/// its lines, and the drives and loads on its nodes, each with its index in the whole.
-struct CircuitPart {
-  physics::Circuit circuit;
-  std::vector<std::size_t> lines;
-  std::vector<std::size_t> loads;
-};
-
-/// The circuit's connected parts, in the order of their first line. Parts share no node, so
-/// each can be solved alone.
-std::vector<CircuitPart> circuit_parts(const physics::Circuit& circuit);
-
 /// The plan of one part, cut from the whole circuit's plan.
-Plan part_plan(const Plan& whole, const CircuitPart& part);
+Plan part_plan(const Plan& whole, const sim::CircuitPart& part);
 
 /// Plans every line: the rise time that reaches it (its own rise=, else the fastest drive
 /// in its connected part of the circuit, else `set rise`; a line with none is an error),

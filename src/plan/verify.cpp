@@ -327,13 +327,13 @@ std::pair<Plan, Verification> plan_verified_part(const physics::Circuit& circuit
 }
 
 /// The whole plan, its parts' plans and verifications put back in place.
-void merge_part(const CircuitPart& part, const Plan& from, Plan& into) {
+void merge_part(const sim::CircuitPart& part, const Plan& from, Plan& into) {
   for (std::size_t j = 0; j < part.lines.size(); ++j) into.lines[part.lines[j]] = from.lines[j];
   for (std::size_t j = 0; j < part.loads.size() && j < from.closing_voltage.size(); ++j)
     into.closing_voltage[part.loads[j]] = from.closing_voltage[j];
 }
 
-void merge_part(const CircuitPart& part, const Verification& from, Verification& into) {
+void merge_part(const sim::CircuitPart& part, const Verification& from, Verification& into) {
   for (std::size_t j = 0; j < part.lines.size(); ++j) into.lines[part.lines[j]] = from.lines[j];
   into.accuracy = std::max(into.accuracy, from.accuracy);
   into.reference_within_target = into.reference_within_target && from.reference_within_target;
@@ -349,7 +349,7 @@ void check_plan_of(const physics::Circuit& circuit, const Plan& plan) {
 void set_closing_voltages(const physics::Circuit& circuit, Plan& plan) {
   check_plan_of(circuit, plan);
   plan.closing_voltage.assign(circuit.loads.size(), 0.0);
-  for (const CircuitPart& part : circuit_parts(circuit)) {
+  for (const sim::CircuitPart& part : sim::connected_parts(circuit)) {
     Plan p = part_plan(plan, part);
     const sim::ReferenceOptions o = reference_options(p);
     sim::ResponseWorkspace ws;
@@ -363,7 +363,7 @@ Verification verify_plan(const physics::Circuit& circuit, const Plan& plan) {
   Verification v;
   v.lines.resize(circuit.lines.size());
   v.reference_within_target = true;
-  const std::vector<CircuitPart> parts = circuit_parts(circuit);
+  const std::vector<sim::CircuitPart> parts = sim::connected_parts(circuit);
   std::vector<Verification> verdicts(parts.size());
   std::vector<std::size_t> items(parts.size());
   std::iota(items.begin(), items.end(), std::size_t{0});
@@ -383,7 +383,7 @@ std::pair<Plan, Verification> plan_verified(const physics::Circuit& circuit,
   v.lines.resize(circuit.lines.size());
   v.reference_within_target = true;
   // Parts side by side when there are several, else the lines of the one part.
-  const std::vector<CircuitPart> parts = circuit_parts(circuit);
+  const std::vector<sim::CircuitPart> parts = sim::connected_parts(circuit);
   const unsigned threads = worker_count();
   std::vector<std::pair<Plan, Verification>> done(parts.size());
   std::vector<std::size_t> items(parts.size());

@@ -35,7 +35,7 @@ struct Verification {
   bool reference_within_target = false;
 };
 
-/// Each connected part of the circuit (plan::circuit_parts) is measured on its own, against its
+/// Each connected part of the circuit (sim::connected_parts) is measured on its own, against its
 /// own reference, in what follows.
 ///
 /// Measures the plan's ladders against the exact reference (target: the smallest line
