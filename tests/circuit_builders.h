@@ -4,7 +4,12 @@
 #include <utility>
 #include <vector>
 
+#include <catch2/catch.hpp>
+
 #include "physics/circuit.h"
+#include "plan/plan.h"
+#include "syntax/diagnostics.h"
+#include "syntax/source.h"
 
 namespace rungs::testing {
 
@@ -60,6 +65,15 @@ inline physics::Load load(const std::string& node, physics::LoadNetwork network)
   l.node = node;
   l.network = std::move(network);
   return l;
+}
+
+/// The analytic plan of `c`, as rungs plan --analytic makes it; a test fails if it errs.
+inline plan::Plan analytic_plan(const physics::Circuit& c) {
+  const syntax::SourceFile file{"test.rungs", ""};
+  syntax::Diagnostics diagnostics(file);
+  plan::Plan p = plan::plan_circuit(c, diagnostics);
+  REQUIRE_FALSE(diagnostics.has_errors());
+  return p;
 }
 
 }  // namespace rungs::testing

@@ -23,6 +23,8 @@ using rungs::plan::Plan;
 using rungs::plan::plan_verified;
 using rungs::plan::verify_plan;
 
+using rungs::testing::analytic_plan;
+
 namespace {
 
 constexpr double kRise = 1e-9;    // s, the drive's 10-90 % edge
@@ -39,13 +41,6 @@ Circuit open_line(double ratio, double source) {
   return c;
 }
 
-Plan analytic_plan(const Circuit& c) {
-  const rungs::syntax::SourceFile file{"background.rungs", ""};
-  rungs::syntax::Diagnostics diagnostics(file);
-  Plan p = rungs::plan::plan_circuit(c, diagnostics);
-  REQUIRE_FALSE(diagnostics.has_errors());
-  return p;
-}
 
 /// The verdict on the line cut into `sections`, the rest of `plan` as it is.
 LineVerdict verdict_at(const Circuit& c, Plan plan, int sections) {

@@ -30,6 +30,8 @@ using rungs::plan::verify_plan;
 using rungs::testing::ideal_line;
 using rungs::testing::step_drive;
 
+using rungs::testing::analytic_plan;
+
 namespace {
 
 
@@ -41,13 +43,6 @@ Line line(const std::string& name, const std::string& near, const std::string& f
   return ideal_line(name, near, far, z0, delay);
 }
 
-Plan analytic_plan(const Circuit& c) {
-  const rungs::syntax::SourceFile file{"verify.rungs", ""};
-  rungs::syntax::Diagnostics diagnostics(file);
-  Plan p = rungs::plan::plan_circuit(c, diagnostics);
-  REQUIRE_FALSE(diagnostics.has_errors());
-  return p;
-}
 
 }  // namespace
 

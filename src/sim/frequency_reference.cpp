@@ -49,7 +49,7 @@ Eigen::MatrixXcd compensation_source(LaplaceInverter& inverter, const NodeSpectr
       column[static_cast<std::size_t>(k)] =
           open_voltage(k, c) - initial(c) * reciprocal(grid.s(static_cast<std::size_t>(k)));
     inverter.damped(column, grid.frequencies, g);
-    inverter.transform_until(g, at, 0.0, part);
+    inverter.transform_until(g, at, part);
     // u(at): the samples' linear interpolant at `at`, undamped.
     undamped.resize(g.size());
     inverter.undamp(g, undamped);

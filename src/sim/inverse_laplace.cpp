@@ -117,34 +117,24 @@ void LaplaceInverter::undamp(std::span<const double> g, std::span<double> out) c
   for (std::size_t j = 0; j < n; ++j) out[j] = growth_[j] * g[j];
 }
 
-void LaplaceInverter::transform_until(std::span<const double> g, double cut, double transition,
+void LaplaceInverter::transform_until(std::span<const double> g, double cut,
                                       std::vector<Complex>& out) {
   const std::size_t m = grid_.fft_size();
   const double h = grid_.time_step();
   const std::size_t kmax = grid_.frequencies;
   out.assign(kmax, Complex(0.0, 0.0));
-  if (!(cut > 0.0) && !(transition > 0.0)) return;
+  if (!(cut > 0.0)) return;
   // The linear interpolant of the samples is a sum of hats g_j T((t - t_j)/h), and a hat's
   // transform is h sinc^2(w h / 2) e^{-i w t_j}: the sum over j is one forward FFT. Hats cut at
   // the ends of the interval are corrected one by one below.
-  const std::size_t last_full =
-      transition > 0.0
-          ? std::min(m - 2, static_cast<std::size_t>(std::ceil((cut + transition) / h)))
-          : std::min(m - 2, static_cast<std::size_t>(cut / h));
+  const std::size_t last_full = std::min(m - 2, static_cast<std::size_t>(cut / h));
   std::fill(real_.begin(), real_.end(), 0.0);
-  for (std::size_t j = 0; j <= last_full && j < g.size(); ++j) {
-    double w = 1.0;
-    if (transition > 0.0) {
-      const double t = h * static_cast<double>(j);
-      w = t <= cut ? 1.0 : std::max(0.0, 1.0 - (t - cut) / transition);
-    }
-    real_[j] = g[j] * w;
-  }
+  for (std::size_t j = 0; j <= last_full && j < g.size(); ++j) real_[j] = g[j];
   fft_->fft.fwd(half_.data(), real_.data(), static_cast<Eigen::DenseIndex>(m));
   nonzero_ = half_.size();
   const double dw = 2.0 * std::numbers::pi / grid_.period;
   const double tm = h * static_cast<double>(last_full);
-  const double delta = cut - tm;  // the part of the last interval before the cut, no transition
+  const double delta = cut - tm;  // the part of the last interval before the cut
   const double g_m = g[last_full];
   const double g_next = last_full + 1 < g.size() ? g[last_full + 1] : 0.0;
   for (std::size_t k = 0; k < kmax; ++k) {
@@ -156,14 +146,12 @@ void LaplaceInverter::transform_until(std::span<const double> g, double cut, dou
     const Complex ix(0.0, x);
     const Complex right = mean_exp(ix) - first_moment_exp(ix);
     Complex e = h * sinc * sinc * half_[k] - real_[0] * h * std::conj(right);
-    if (!(transition > 0.0)) {
-      // Replace the last hat's right half by the interpolant from t_m to the cut.
-      const Complex rotate = std::exp(Complex(0.0, -w * tm));
-      e -= g_m * rotate * h * right;
-      const Complex iwd(0.0, w * delta);
-      e += rotate * (g_m * delta * mean_exp(iwd) +
-                     (g_next - g_m) / h * delta * delta * first_moment_exp(iwd));
-    }
+    // Replace the last hat's right half by the interpolant from t_m to the cut.
+    const Complex rotate = std::exp(Complex(0.0, -w * tm));
+    e -= g_m * rotate * h * right;
+    const Complex iwd(0.0, w * delta);
+    e += rotate * (g_m * delta * mean_exp(iwd) +
+                   (g_next - g_m) / h * delta * delta * first_moment_exp(iwd));
     out[k] = e;
   }
 }

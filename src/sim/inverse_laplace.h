@@ -61,11 +61,9 @@ class LaplaceInverter {
   /// f(t_j) for j < out.size() (at most fft_size()) from damped samples: e^{sigma t_j} g_j.
   void undamp(std::span<const double> g, std::span<double> out) const;
 
-  /// The transform E(s_k), k < frequencies, of f(t) w(t), where f is given by its damped samples
-  /// (interpolated linearly between them) and w(t) = 1 before `cut`, falls linearly to 0 over
-  /// `transition` (s) and is 0 after. With no transition the cut is exact at any time; with one,
-  /// the product f w is interpolated linearly between samples.
-  void transform_until(std::span<const double> g, double cut, double transition,
+  /// The transform E(s_k), k < frequencies, of f(t) for t < `cut` (0 after), where f is given by
+  /// its damped samples, interpolated linearly between them; the cut is exact at any time.
+  void transform_until(std::span<const double> g, double cut,
                        std::vector<std::complex<double>>& out);
 
  private:
