@@ -11,11 +11,11 @@
 
 #include <sys/resource.h>
 
-#include "physics/circuit.h"
-#include "physics/resolve.h"
-#include "plan/plan.h"
-#include "syntax/diagnostics.h"
-#include "syntax/parser.h"
+#include "3_model/circuit.h"
+#include "3_model/resolve.h"
+#include "5_plan/plan.h"
+#include "1_syntax/diagnostics.h"
+#include "1_syntax/parser.h"
 
 namespace rungs::bench {
 
@@ -25,7 +25,7 @@ namespace fs = std::filesystem;
 /// verifies anything.
 struct Planned {
   syntax::SourceFile file;
-  physics::Circuit circuit;
+  model::Circuit circuit;
   plan::Plan plan;
 };
 
@@ -36,7 +36,7 @@ inline std::unique_ptr<Planned> read_and_plan(const std::string& name, std::stri
   p->file = {name, std::move(text)};
   syntax::Diagnostics diagnostics(p->file);
   const auto description = syntax::parse_description(diagnostics);
-  p->circuit = physics::resolve(description, diagnostics);
+  p->circuit = model::resolve(description, diagnostics);
   if (!diagnostics.has_errors()) p->plan = plan::plan_circuit(p->circuit, diagnostics);
   if (diagnostics.has_errors()) {
     std::fputs(diagnostics.render().c_str(), stderr);

@@ -17,10 +17,10 @@
 #include <unistd.h>
 
 #include "bench_support.h"
-#include "emit/deck.h"
-#include "emit/sha256.h"
-#include "emit/templates.h"
-#include "plan/plan.h"
+#include "6_emit/deck.h"
+#include "6_emit/sha256.h"
+#include "6_emit/templates.h"
+#include "5_plan/plan.h"
 
 namespace {
 
@@ -36,7 +36,7 @@ int sections_for(long long elements) {
 }
 
 long long elements_of(int sections) {
-  return kLines * rungs::plan::ladder_elements(sections, rungs::physics::Shape::pi, false, false);
+  return kLines * rungs::plan::ladder_elements(sections, rungs::model::Shape::pi, false, false);
 }
 
 /// An invented test board: kLines separate 48 ohm runs, each with its own driver and its

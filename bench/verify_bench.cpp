@@ -14,9 +14,9 @@
 #include <vector>
 
 #include "bench_support.h"
-#include "plan/plan.h"
-#include "plan/verify.h"
-#include "syntax/diagnostics.h"
+#include "5_plan/plan.h"
+#include "5_plan/verify.h"
+#include "1_syntax/diagnostics.h"
 
 namespace {
 

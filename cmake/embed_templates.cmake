@@ -10,7 +10,7 @@ foreach(path IN LISTS templates)
 endforeach()
 file(WRITE "${OUTPUT}.tmp"
 "// Generated from templates/*.tmpl by cmake/embed_templates.cmake; do not edit.
-#include \"emit/templates.h\"
+#include \"6_emit/templates.h\"
 
 namespace rungs::emit {
 

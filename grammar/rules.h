@@ -8,7 +8,7 @@
 #include <boost/fusion/include/adapt_struct.hpp>
 #include <boost/spirit/home/x3.hpp>
 
-#include "syntax/ast.h"
+#include "1_syntax/ast.h"
 
 BOOST_FUSION_ADAPT_STRUCT(rungs::syntax::ast::Param, key, value)
 BOOST_FUSION_ADAPT_STRUCT(rungs::syntax::ast::Waveform, kind, low, high)

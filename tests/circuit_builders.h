@@ -6,17 +6,17 @@
 
 #include <catch2/catch.hpp>
 
-#include "physics/circuit.h"
-#include "plan/plan.h"
-#include "syntax/diagnostics.h"
-#include "syntax/source.h"
+#include "3_model/circuit.h"
+#include "5_plan/plan.h"
+#include "1_syntax/diagnostics.h"
+#include "1_syntax/source.h"
 
 namespace rungs::testing {
 
 /// An ideal line of impedance z0 (ohm) and one-way delay (s) between two nodes.
-inline physics::Line ideal_line(const std::string& name, const std::string& near,
+inline model::Line ideal_line(const std::string& name, const std::string& near,
                                 const std::string& far, double z0, double delay) {
-  physics::Line l;
+  model::Line l;
   l.name = name;
   l.near = near;
   l.far = far;
@@ -28,11 +28,11 @@ inline physics::Line ideal_line(const std::string& name, const std::string& near
 
 /// A step from `low` to `high` volts behind `source` ohms, its 10-90 % edge `rise` (s)
 /// starting at `at` (s).
-inline physics::Drive step_drive(const std::string& node, double low, double high, double source,
+inline model::Drive step_drive(const std::string& node, double low, double high, double source,
                                  double rise, double at = 0.0) {
-  physics::Drive d;
+  model::Drive d;
   d.node = node;
-  d.kind = physics::WaveKind::step;
+  d.kind = model::WaveKind::step;
   d.low = low;
   d.high = high;
   d.rise = rise;
@@ -42,33 +42,33 @@ inline physics::Drive step_drive(const std::string& node, double low, double hig
 }
 
 /// One R, C or L of `value` (ohm, F, H).
-inline physics::LoadNetwork element(physics::ElementKind kind, double value) {
-  physics::LoadNetwork n;
-  n.kind = physics::NetworkKind::single;
+inline model::LoadNetwork element(model::ElementKind kind, double value) {
+  model::LoadNetwork n;
+  n.kind = model::NetworkKind::single;
   n.element = kind;
   n.value = value;
   return n;
 }
 
 /// Parts joined in series or in parallel.
-inline physics::LoadNetwork combine(physics::NetworkKind kind,
-                                    std::vector<physics::LoadNetwork> parts) {
-  physics::LoadNetwork n;
+inline model::LoadNetwork combine(model::NetworkKind kind,
+                                    std::vector<model::LoadNetwork> parts) {
+  model::LoadNetwork n;
   n.kind = kind;
   n.parts = std::move(parts);
   return n;
 }
 
 /// A load from `node` to ground, connected from t = 0.
-inline physics::Load load(const std::string& node, physics::LoadNetwork network) {
-  physics::Load l;
+inline model::Load load(const std::string& node, model::LoadNetwork network) {
+  model::Load l;
   l.node = node;
   l.network = std::move(network);
   return l;
 }
 
 /// The analytic plan of `c`, as rungs plan --analytic makes it; a test fails if it errs.
-inline plan::Plan analytic_plan(const physics::Circuit& c) {
+inline plan::Plan analytic_plan(const model::Circuit& c) {
   const syntax::SourceFile file{"test.rungs", ""};
   syntax::Diagnostics diagnostics(file);
   plan::Plan p = plan::plan_circuit(c, diagnostics);

@@ -11,7 +11,7 @@
 
 #include <unistd.h>
 
-#include "build/depfile.h"
+#include "8_project/depfile.h"
 
 namespace fs = std::filesystem;
 using rungs::build::depfile_can_name;

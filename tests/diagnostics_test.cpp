@@ -7,10 +7,10 @@
 #include <string>
 #include <utility>
 
-#include "physics/resolve.h"
-#include "syntax/diagnostics.h"
-#include "syntax/parser.h"
-#include "syntax/source.h"
+#include "3_model/resolve.h"
+#include "1_syntax/diagnostics.h"
+#include "1_syntax/parser.h"
+#include "1_syntax/source.h"
 
 namespace {
 
@@ -19,7 +19,7 @@ std::string diagnose(std::string text) {
   const rungs::syntax::SourceFile file{"bad.rungs", std::move(text)};
   rungs::syntax::Diagnostics diagnostics(file);
   const auto description = rungs::syntax::parse_description(diagnostics);
-  (void)rungs::physics::resolve(description, diagnostics);
+  (void)rungs::model::resolve(description, diagnostics);
   return diagnostics.render();
 }
 

@@ -32,18 +32,18 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
-#include "emit/deck.h"
-#include "emit/sha256.h"
-#include "emit/spice_number.h"
-#include "emit/templates.h"
-#include "physics/resolve.h"
-#include "plan/plan.h"
-#include "plan/verify.h"
-#include "report/plan_report.h"
+#include "6_emit/deck.h"
+#include "6_emit/sha256.h"
+#include "6_emit/spice_number.h"
+#include "6_emit/templates.h"
+#include "3_model/resolve.h"
+#include "5_plan/plan.h"
+#include "5_plan/verify.h"
+#include "7_report/plan_report.h"
 #include "run_command.h"
-#include "sim/peak.h"
-#include "syntax/diagnostics.h"
-#include "syntax/parser.h"
+#include "4_sim/peak.h"
+#include "1_syntax/diagnostics.h"
+#include "1_syntax/parser.h"
 
 extern char** environ;
 
@@ -316,7 +316,7 @@ Emitted emit_in_process(const GoldenCase& c) {
   namespace syntax = rungs::syntax;
   const syntax::SourceFile file{c.input, read_file(kSource / c.input)};
   syntax::Diagnostics diagnostics(file);
-  const auto circuit = rungs::physics::resolve(syntax::parse_description(diagnostics), diagnostics);
+  const auto circuit = rungs::model::resolve(syntax::parse_description(diagnostics), diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
   const auto analytic = rungs::plan::plan_circuit(circuit, diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
@@ -327,7 +327,7 @@ Emitted emit_in_process(const GoldenCase& c) {
       deck, circuit, plan, {file.name, rungs::emit::sha256_hex(file.text)},
       rungs::emit::builtin_templates(), {c.option == "library", c.option == "with-ideal"});
   REQUIRE(error.empty());
-  const auto peak = rungs::sim::estimate_peak(circuit, plan);
+  const auto peak = rungs::sim::estimate_peak(circuit, plan.window);
   return {0, "", deck.str(),
           rungs::report::plan_text(circuit, plan, peak, file.name, &verification)};
 }

@@ -20,23 +20,23 @@
 #include <string>
 #include <vector>
 
-#include "emit/deck.h"
-#include "emit/ladder.h"
-#include "emit/names.h"
-#include "emit/sha256.h"
-#include "emit/spice_number.h"
-#include "emit/templates.h"
-#include "physics/resolve.h"
-#include "plan/plan.h"
-#include "plan/verify.h"
-#include "syntax/diagnostics.h"
-#include "syntax/parser.h"
+#include "6_emit/deck.h"
+#include "6_emit/ladder.h"
+#include "6_emit/names.h"
+#include "6_emit/sha256.h"
+#include "6_emit/spice_number.h"
+#include "6_emit/templates.h"
+#include "3_model/resolve.h"
+#include "5_plan/plan.h"
+#include "5_plan/verify.h"
+#include "1_syntax/diagnostics.h"
+#include "1_syntax/parser.h"
 
 namespace emit = rungs::emit;
-namespace physics = rungs::physics;
+namespace model = rungs::model;
 namespace plan = rungs::plan;
 namespace syntax = rungs::syntax;
-using physics::Shape;
+using model::Shape;
 
 namespace {
 
@@ -192,7 +192,7 @@ TEST_CASE("write_ladder writes plan::ladder_elements elements for every shape") 
     for (int sections : {1, 2, 3, 10, 257}) {
       for (bool r : {false, true}) {
         for (bool g : {false, true}) {
-          INFO("shape " << physics::shape_name(shape) << ", " << sections << " sections, r " << r
+          INFO("shape " << model::shape_name(shape) << ", " << sections << " sections, r " << r
                         << ", g " << g);
           long long returned = 0;
           const std::string text = ladder_text(line_plan(sections, shape, r, g), {}, &returned);
@@ -291,7 +291,7 @@ TEST_CASE("every ladder is one series chain with its shunts to ref and the line'
   for (Shape shape : {Shape::pi, Shape::t, Shape::l}) {
     for (int n : {1, 2, 5, 40}) {
       for (bool lossy : {false, true}) {
-        INFO("shape " << physics::shape_name(shape) << ", " << n << " sections, lossy " << lossy);
+        INFO("shape " << model::shape_name(shape) << ", " << n << " sections, lossy " << lossy);
         const plan::LinePlan lp = line_plan(n, shape, lossy, lossy);
         const auto elements =
             parse_elements(ladder_text(lp, lossy ? 5.0 : std::optional<double>{}));
@@ -425,7 +425,7 @@ std::string deck_of(const std::string& text, emit::DeckOptions options = {}) {
   const syntax::SourceFile file{"names.rungs", text};
   syntax::Diagnostics diagnostics(file);
   const auto description = syntax::parse_description(diagnostics);
-  const physics::Circuit circuit = physics::resolve(description, diagnostics);
+  const model::Circuit circuit = model::resolve(description, diagnostics);
   INFO(diagnostics.render());
   REQUIRE_FALSE(diagnostics.has_errors());
   plan::Plan plan = plan::plan_circuit(circuit, diagnostics);
@@ -680,7 +680,7 @@ TEST_CASE("write_deck reports a template that does not fill") {
                                 "line t a -> b ideal z0=50ohm delay=1ns\n"
                                 "drive a step 0V to 1V rise=100ps\nload b 50ohm\n"};
   syntax::Diagnostics diagnostics(file);
-  const auto circuit = physics::resolve(syntax::parse_description(diagnostics), diagnostics);
+  const auto circuit = model::resolve(syntax::parse_description(diagnostics), diagnostics);
   const auto plan = plan::plan_circuit(circuit, diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
   std::ostringstream out;

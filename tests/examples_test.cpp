@@ -16,18 +16,18 @@
 #include <string>
 #include <vector>
 
-#include "physics/circuit.h"
-#include "physics/models.h"
-#include "physics/resolve.h"
-#include "syntax/ast.h"
-#include "syntax/diagnostics.h"
-#include "syntax/parser.h"
-#include "syntax/source.h"
+#include "3_model/circuit.h"
+#include "3_model/models.h"
+#include "3_model/resolve.h"
+#include "1_syntax/ast.h"
+#include "1_syntax/diagnostics.h"
+#include "1_syntax/parser.h"
+#include "1_syntax/source.h"
 
 using Catch::Matchers::WithinRel;
 namespace fs = std::filesystem;
 namespace ast = rungs::syntax::ast;
-namespace physics = rungs::physics;
+namespace model = rungs::model;
 namespace syntax = rungs::syntax;
 
 namespace {
@@ -67,7 +67,7 @@ syntax::SourceFile read_example(const fs::path& path) {
 struct Example {
   syntax::SourceFile file;
   ast::Description description;
-  physics::Circuit circuit;
+  model::Circuit circuit;
   std::string rendered;
   std::size_t diagnostic_count = 0;
 };
@@ -76,7 +76,7 @@ Example load(const fs::path& path) {
   Example e{read_example(path), {}, {}, {}, 0};
   syntax::Diagnostics diagnostics(e.file);
   e.description = syntax::parse_description(diagnostics);
-  e.circuit = physics::resolve(e.description, diagnostics);
+  e.circuit = model::resolve(e.description, diagnostics);
   e.rendered = diagnostics.render();
   e.diagnostic_count = diagnostics.all().size();
   return e;
@@ -84,9 +84,9 @@ Example load(const fs::path& path) {
 
 Example load_example(const std::string& name) { return load(examples_dir() / name); }
 
-const physics::Line& line_named(const physics::Circuit& circuit, const std::string& name) {
+const model::Line& line_named(const model::Circuit& circuit, const std::string& name) {
   auto it = std::find_if(circuit.lines.begin(), circuit.lines.end(),
-                         [&](const physics::Line& l) { return l.name == name; });
+                         [&](const model::Line& l) { return l.name == name; });
   INFO("line " << name);
   REQUIRE(it != circuit.lines.end());
   return *it;
@@ -176,18 +176,18 @@ TEST_CASE("every example parses and resolves with no error and no warning") {
 
 TEST_CASE("the examples together use every model, drive kind, load form and line option") {
   std::set<std::string> models;
-  std::set<physics::WaveKind> waves;
-  std::set<physics::NetworkKind> networks;
-  std::set<physics::ElementKind> elements;
+  std::set<model::WaveKind> waves;
+  std::set<model::NetworkKind> networks;
+  std::set<model::ElementKind> elements;
   std::set<std::string> line_keys;
   bool nested = false;
   bool switched = false;
-  std::function<void(const physics::LoadNetwork&, int)> visit =
-      [&](const physics::LoadNetwork& n, int depth) {
+  std::function<void(const model::LoadNetwork&, int)> visit =
+      [&](const model::LoadNetwork& n, int depth) {
         networks.insert(n.kind);
-        if (n.kind == physics::NetworkKind::single) elements.insert(n.element);
-        if (depth > 0 && (n.kind == physics::NetworkKind::series ||
-                          n.kind == physics::NetworkKind::parallel))
+        if (n.kind == model::NetworkKind::single) elements.insert(n.element);
+        if (depth > 0 && (n.kind == model::NetworkKind::series ||
+                          n.kind == model::NetworkKind::parallel))
           nested = true;  // a bracketed network inside another
         for (const auto& part : n.parts) visit(part, depth + 1);
       };
@@ -203,25 +203,25 @@ TEST_CASE("the examples together use every model, drive kind, load form and line
       if (const auto* l = std::get_if<ast::LineStatement>(&s))
         for (const ast::Param& p : l->params) line_keys.insert(p.key.text);
   }
-  for (const physics::ModelSpec& m : physics::line_models()) {
+  for (const model::ModelSpec& m : model::line_models()) {
     INFO("model " << m.name);
     CHECK(models.count(std::string(m.name)) == 1);
   }
-  for (physics::WaveKind kind :
-       {physics::WaveKind::step, physics::WaveKind::pulse, physics::WaveKind::dc})
+  for (model::WaveKind kind :
+       {model::WaveKind::step, model::WaveKind::pulse, model::WaveKind::dc})
     CHECK(waves.count(kind) == 1);
-  for (physics::NetworkKind kind :
-       {physics::NetworkKind::single, physics::NetworkKind::series,
-        physics::NetworkKind::parallel, physics::NetworkKind::open,
-        physics::NetworkKind::short_circuit})
+  for (model::NetworkKind kind :
+       {model::NetworkKind::single, model::NetworkKind::series,
+        model::NetworkKind::parallel, model::NetworkKind::open,
+        model::NetworkKind::short_circuit})
     CHECK(networks.count(kind) == 1);
-  for (physics::ElementKind kind : {physics::ElementKind::resistor,
-                                    physics::ElementKind::capacitor,
-                                    physics::ElementKind::inductor})
+  for (model::ElementKind kind : {model::ElementKind::resistor,
+                                    model::ElementKind::capacitor,
+                                    model::ElementKind::inductor})
     CHECK(elements.count(kind) == 1);
   CHECK(nested);
   CHECK(switched);
-  for (const physics::ParamSpec& option : physics::line_options()) {
+  for (const model::ParamSpec& option : model::line_options()) {
     INFO("line option " << option.key << "=");
     CHECK(line_keys.count(std::string(option.key)) == 1);
   }
@@ -233,7 +233,7 @@ TEST_CASE("coax lines of the examples follow Pozar's closed form") {
     REQUIRE(e.diagnostic_count == 0);
     require_written(e, "speed_feed",
                     {{"inner", "0.85mm"}, {"outer", "2.95mm"}, {"er", "2.25"}, {"length", "2.5m"}});
-    const physics::Line& line = line_named(e.circuit, "speed_feed");
+    const model::Line& line = line_named(e.circuit, "speed_feed");
     const double a = 0.85e-3, b = 2.95e-3, er = 2.25, length = 2.5;
     // Pozar, Microwave Engineering, 4th ed., Table 2.1 (coax): L' = mu/(2 pi) ln(b/a),
     // C' = 2 pi eps/ln(b/a), so Z0 = eta0/(2 pi sqrt er) ln(b/a); only the ratio of the
@@ -255,7 +255,7 @@ TEST_CASE("coax lines of the examples follow Pozar's closed form") {
     require_written(e, "pfl",
                     {{"inner", "0.85mm"}, {"outer", "2.95mm"}, {"er", "2.25"}, {"length", "10m"},
                      {"charged", "200V"}, {"sections", "300"}, {"rise", "2ns"}});
-    const physics::Line& line = line_named(e.circuit, "pfl");
+    const model::Line& line = line_named(e.circuit, "pfl");
     // Pozar, 4th ed., Table 2.1 (coax), as above; delay = length sqrt(er)/c.
     CHECK_THAT(line.z0, WithinRel(kEta0 / (2.0 * kPi * 1.5) * std::log(2.95 / 0.85), kExact));
     CHECK_THAT(line.delay, WithinRel(10.0 * 1.5 / kC, kExact));
@@ -277,7 +277,7 @@ TEST_CASE("twin-lead lines of the examples follow the acosh form") {
   REQUIRE(e.diagnostic_count == 0);
   require_written(e, "boom_pair",
                   {{"wire", "1.13mm"}, {"spacing", "2.9mm"}, {"er", "2.0"}, {"length", "12m"}});
-  const physics::Line& line = line_named(e.circuit, "boom_pair");
+  const model::Line& line = line_named(e.circuit, "boom_pair");
   const double d = 1.13e-3, spacing = 2.9e-3, er = 2.0, length = 12.0;
   // Pozar, 4th ed., Table 2.1 (two-wire): L' = (mu/pi) acosh(D/2a), C' = pi eps/acosh(D/2a),
   // D the centre spacing and a the wire radius (Hayt & Buck, Engineering Electromagnetics,
@@ -297,7 +297,7 @@ TEST_CASE("ideal lines of the examples keep the delay and speed they are given")
   REQUIRE(backplane.diagnostic_count == 0);
   SECTION("backplane_link: mate_a, impedance and delay only") {
     require_written(backplane, "mate_a", {{"z0", "55ohm"}, {"delay", "85ps"}});
-    const physics::Line& line = line_named(backplane.circuit, "mate_a");
+    const model::Line& line = line_named(backplane.circuit, "mate_a");
     // DESIGN.md, language v1: `ideal z0= delay=` is a line of that impedance and delay.
     CHECK_THAT(line.z0, WithinRel(55.0, kExact));
     CHECK_THAT(line.delay, WithinRel(85e-12, kExact));
@@ -307,7 +307,7 @@ TEST_CASE("ideal lines of the examples keep the delay and speed they are given")
     require_written(backplane, "card_b",
                     {{"z0", "50ohm"}, {"delay", "420ps"}, {"length", "70mm"}, {"r", "30ohm/m"},
                      {"g", "15mS/m"}});
-    const physics::Line& line = line_named(backplane.circuit, "card_b");
+    const model::Line& line = line_named(backplane.circuit, "card_b");
     const double z0 = 50.0, delay = 420e-12, length = 70e-3;
     const double v = length / delay;
     CHECK_THAT(line.delay, WithinRel(delay, kExact));
@@ -322,7 +322,7 @@ TEST_CASE("ideal lines of the examples keep the delay and speed they are given")
   }
   SECTION("backplane_link: card_a, length with er=") {
     require_written(backplane, "card_a", {{"z0", "50ohm"}, {"length", "90mm"}, {"er", "3.3"}});
-    const physics::Line& line = line_named(backplane.circuit, "card_a");
+    const model::Line& line = line_named(backplane.circuit, "card_a");
     // v = c/sqrt(eps_eff) (DESIGN.md: er= is the effective permittivity; the quasi-TEM
     // definition of eps_eff, Pozar 4th ed. sec. 3.8; section recalled from memory).
     CHECK_THAT(line.velocity, WithinRel(kC / std::sqrt(3.3), kExact));
@@ -334,7 +334,7 @@ TEST_CASE("ideal lines of the examples keep the delay and speed they are given")
     const Example bench = load_example("bench_pulse_line.rungs");
     REQUIRE(bench.diagnostic_count == 0);
     require_written(bench, "trig_lead", {{"z0", "50ohm"}, {"length", "0.5m"}, {"v", "0.66c"}});
-    const physics::Line& line = line_named(bench.circuit, "trig_lead");
+    const model::Line& line = line_named(bench.circuit, "trig_lead");
     // delay = length / v (DESIGN.md, language v1: any two of length, delay, speed fix the
     // third), with c exact (CODATA 2018).
     CHECK_THAT(line.velocity, WithinRel(0.66 * kC, kExact));
@@ -349,7 +349,7 @@ TEST_CASE("per-length and parallel-plate lines of the examples follow their defi
     require_written(e, "bp_trace",
                     {{"l", "345nH/m"}, {"c", "138pF/m"}, {"r", "25ohm/m"}, {"g", "17mS/m"},
                      {"length", "0.5m"}});
-    const physics::Line& line = line_named(e.circuit, "bp_trace");
+    const model::Line& line = line_named(e.circuit, "bp_trace");
     const double l = 345e-9, c = 138e-12;
     // Pozar, 4th ed., sec. 2.1, lossless line (section recalled from memory):
     // Z0 = sqrt(L'/C'), v = 1/sqrt(L'C').
@@ -370,7 +370,7 @@ TEST_CASE("per-length and parallel-plate lines of the examples follow their defi
     require_written(e, "plane_a",
                     {{"width", "40mm"}, {"gap", "0.1mm"}, {"er", "4.3"}, {"length", "30mm"},
                      {"r", "25mohm/m"}});
-    const physics::Line& line = line_named(e.circuit, "plane_a");
+    const model::Line& line = line_named(e.circuit, "plane_a");
     const double w = 40e-3, d = 0.1e-3, er = 4.3;
     // Pozar, 4th ed., Table 2.1 (parallel plate): L' = mu d/W, C' = eps W/d,
     // Z0 = eta d/W, for W much larger than d (here W/d = 400).
@@ -406,7 +406,7 @@ TEST_CASE("the microstrip trunk of clock_fanout follows Hammerstad-Jensen") {
   require_written(e, "trunk",
                   {{"width", "0.36mm"}, {"height", "0.2mm"}, {"thickness", "35um"},
                    {"er", "4.3"}, {"length", "60mm"}});
-  const physics::Line& line = line_named(e.circuit, "trunk");
+  const model::Line& line = line_named(e.circuit, "trunk");
   // Hammerstad & Jensen 1980 with their finite-thickness correction (written above).
   const Microstrip m = hj_microstrip(0.36e-3, 0.2e-3, 35e-6, 4.3);
   CHECK_THAT(line.z0, WithinRel(m.z0, 1e-6));
@@ -435,7 +435,7 @@ TEST_CASE("the stripline branches of clock_fanout sit below Cohn's zero-thicknes
   require_written(e, "br1",
                   {{"width", "0.2mm"}, {"spacing", "0.5mm"}, {"thickness", "17um"},
                    {"er", "4.3"}, {"length", "25mm"}});
-  const physics::Line& line = line_named(e.circuit, "br1");
+  const model::Line& line = line_named(e.circuit, "br1");
   // A stripline's dielectric is homogeneous, so the line is TEM: eps_eff = er and
   // v = c/sqrt(er) exactly (Pozar, 4th ed., sec. 3.7; section recalled from memory).
   CHECK_THAT(line.eps_eff, WithinRel(4.3, kExact));

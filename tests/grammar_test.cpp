@@ -7,7 +7,7 @@
 #include <regex>
 #include <sstream>
 
-#include "syntax/parser.h"
+#include "1_syntax/parser.h"
 
 namespace fs = std::filesystem;
 using namespace rungs::syntax;

@@ -6,11 +6,11 @@
 #include <string>
 #include <utility>
 
-#include "build/manifest.h"
-#include "physics/resolve.h"
-#include "syntax/diagnostics.h"
-#include "syntax/parser.h"
-#include "syntax/source.h"
+#include "8_project/manifest.h"
+#include "3_model/resolve.h"
+#include "1_syntax/diagnostics.h"
+#include "1_syntax/parser.h"
+#include "1_syntax/source.h"
 
 namespace build = rungs::build;
 namespace syntax = rungs::syntax;
@@ -277,10 +277,10 @@ TEST_CASE("defaults apply where a description does not set them itself", "[manif
   auto description = syntax::parse_description(diagnostics);
   build::apply_defaults(description,
                         {{"tolerance", "1%", {}}, {"shape", "t", {}}, {"rise", "200ps", {}}});
-  const auto circuit = rungs::physics::resolve(description, diagnostics);
+  const auto circuit = rungs::model::resolve(description, diagnostics);
   CHECK(diagnostics.render().empty());  // the drive has no rise=; the default gives one
   CHECK(circuit.settings.tolerance == Approx(0.05));  // the description's own set wins
-  CHECK(circuit.settings.shape == rungs::physics::Shape::t);
+  CHECK(circuit.settings.shape == rungs::model::Shape::t);
   REQUIRE(circuit.settings.rise);
   CHECK(*circuit.settings.rise == Approx(200e-12));
 }

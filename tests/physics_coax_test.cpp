@@ -4,9 +4,9 @@
 #include <cmath>
 #include <stdexcept>
 
-#include "physics/coax.h"
-#include "physics/constants.h"
-#include "physics/per_length.h"
+#include "2_physics/coax.h"
+#include "2_physics/constants.h"
+#include "2_physics/per_length.h"
 
 using Catch::Matchers::WithinAbs;
 using Catch::Matchers::WithinRel;

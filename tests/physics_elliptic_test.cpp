@@ -5,8 +5,8 @@
 #include <initializer_list>
 #include <stdexcept>
 
-#include "physics/constants.h"
-#include "physics/elliptic.h"
+#include "2_physics/constants.h"
+#include "2_physics/elliptic.h"
 
 using Catch::Matchers::WithinRel;
 using rungs::physics::elliptic_k;

@@ -5,8 +5,8 @@
 #include <initializer_list>
 #include <stdexcept>
 
-#include "physics/microstrip.h"
-#include "physics/per_length.h"
+#include "2_physics/microstrip.h"
+#include "2_physics/per_length.h"
 
 using Catch::Matchers::WithinAbs;
 using Catch::Matchers::WithinRel;

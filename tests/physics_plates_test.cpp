@@ -3,8 +3,8 @@
 
 #include <stdexcept>
 
-#include "physics/per_length.h"
-#include "physics/plates.h"
+#include "2_physics/per_length.h"
+#include "2_physics/plates.h"
 
 using Catch::Matchers::WithinAbs;
 using Catch::Matchers::WithinRel;

@@ -5,9 +5,9 @@
 #include <initializer_list>
 #include <stdexcept>
 
-#include "physics/constants.h"
-#include "physics/per_length.h"
-#include "physics/stripline.h"
+#include "2_physics/constants.h"
+#include "2_physics/per_length.h"
+#include "2_physics/stripline.h"
 
 using Catch::Matchers::WithinAbs;
 using Catch::Matchers::WithinRel;

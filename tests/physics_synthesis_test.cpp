@@ -4,9 +4,9 @@
 #include <initializer_list>
 #include <stdexcept>
 
-#include "physics/microstrip.h"
-#include "physics/stripline.h"
-#include "physics/synthesis.h"
+#include "2_physics/microstrip.h"
+#include "2_physics/stripline.h"
+#include "2_physics/synthesis.h"
 
 using Catch::Matchers::WithinRel;
 using rungs::physics::microstrip_figures;

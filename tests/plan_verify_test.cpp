@@ -6,22 +6,22 @@
 
 #include <string>
 
-#include "physics/circuit.h"
-#include "plan/plan.h"
-#include "plan/verify.h"
-#include "sim/error_measure.h"
-#include "sim/frequency_reference.h"
-#include "syntax/diagnostics.h"
-#include "syntax/source.h"
+#include "3_model/circuit.h"
+#include "5_plan/plan.h"
+#include "5_plan/verify.h"
+#include "4_sim/error_measure.h"
+#include "4_sim/frequency_reference.h"
+#include "1_syntax/diagnostics.h"
+#include "1_syntax/source.h"
 
-using rungs::physics::Circuit;
-using rungs::physics::Drive;
-using rungs::physics::ElementKind;
-using rungs::physics::Line;
-using rungs::physics::Load;
-using rungs::physics::NetworkKind;
-using rungs::physics::Shape;
-using rungs::physics::WaveKind;
+using rungs::model::Circuit;
+using rungs::model::Drive;
+using rungs::model::ElementKind;
+using rungs::model::Line;
+using rungs::model::Load;
+using rungs::model::NetworkKind;
+using rungs::model::Shape;
+using rungs::model::WaveKind;
 using rungs::plan::Plan;
 using rungs::plan::plan_verified;
 using rungs::plan::Verification;

@@ -8,19 +8,19 @@
 #include <stdexcept>
 #include <string>
 
-#include "physics/resolve.h"
-#include "sim/characteristics.h"
-#include "syntax/parser.h"
+#include "3_model/resolve.h"
+#include "4_sim/characteristics.h"
+#include "1_syntax/parser.h"
 
 using Catch::Matchers::WithinAbs;
-using rungs::physics::Circuit;
-using rungs::physics::Drive;
-using rungs::physics::ElementKind;
-using rungs::physics::Line;
-using rungs::physics::Load;
-using rungs::physics::LoadNetwork;
-using rungs::physics::NetworkKind;
-using rungs::physics::WaveKind;
+using rungs::model::Circuit;
+using rungs::model::Drive;
+using rungs::model::ElementKind;
+using rungs::model::Line;
+using rungs::model::Load;
+using rungs::model::LoadNetwork;
+using rungs::model::NetworkKind;
+using rungs::model::WaveKind;
 using rungs::sim::drive_voltage;
 using rungs::sim::find_node;
 using rungs::sim::simulate_characteristics;
@@ -86,7 +86,7 @@ TEST_CASE("a matched source into a 25 ohm load: Hayt & Buck, Example 10.11") {
   rungs::syntax::SourceFile file{"t.rungs", text};
   rungs::syntax::Diagnostics d(file);
   const auto description = rungs::syntax::parse_description(d);
-  const Circuit circuit = rungs::physics::resolve(description, d);
+  const Circuit circuit = rungs::model::resolve(description, d);
   REQUIRE(d.render().empty());
   const Waveforms w = simulate_characteristics(circuit, 4e-9, kDt);
 
@@ -326,7 +326,7 @@ TEST_CASE("a delay between samples is interpolated within a quarter step of the 
 }
 
 TEST_CASE("drive edges follow the design's definition of rise, width and period") {
-  rungs::physics::Settings settings;
+  rungs::model::Settings settings;
   Drive p;
   p.node = "p";
   p.kind = WaveKind::pulse;

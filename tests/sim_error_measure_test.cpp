@@ -7,20 +7,20 @@
 #include <string>
 #include <vector>
 
-#include "physics/circuit.h"
-#include "sim/characteristics.h"
-#include "sim/error_measure.h"
-#include "sim/frequency_reference.h"
+#include "3_model/circuit.h"
+#include "4_sim/characteristics.h"
+#include "4_sim/error_measure.h"
+#include "4_sim/frequency_reference.h"
 
 using Catch::Matchers::WithinAbs;
-using rungs::physics::Circuit;
-using rungs::physics::Drive;
-using rungs::physics::ElementKind;
-using rungs::physics::Line;
-using rungs::physics::Load;
-using rungs::physics::NetworkKind;
-using rungs::physics::Shape;
-using rungs::physics::WaveKind;
+using rungs::model::Circuit;
+using rungs::model::Drive;
+using rungs::model::ElementKind;
+using rungs::model::Line;
+using rungs::model::Load;
+using rungs::model::NetworkKind;
+using rungs::model::Shape;
+using rungs::model::WaveKind;
 using rungs::sim::compare_waveforms;
 using rungs::sim::exact_reference;
 using rungs::sim::LadderError;

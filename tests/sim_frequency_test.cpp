@@ -12,21 +12,21 @@
 
 #include <fmt/format.h>
 
-#include "physics/circuit.h"
-#include "sim/characteristics.h"
-#include "sim/frequency_network.h"
-#include "sim/frequency_reference.h"
+#include "3_model/circuit.h"
+#include "4_sim/characteristics.h"
+#include "4_sim/frequency_network.h"
+#include "4_sim/frequency_reference.h"
 
 using Catch::Matchers::WithinAbs;
-using rungs::physics::Circuit;
-using rungs::physics::Drive;
-using rungs::physics::ElementKind;
-using rungs::physics::Line;
-using rungs::physics::Load;
-using rungs::physics::LoadNetwork;
-using rungs::physics::NetworkKind;
-using rungs::physics::Shape;
-using rungs::physics::WaveKind;
+using rungs::model::Circuit;
+using rungs::model::Drive;
+using rungs::model::ElementKind;
+using rungs::model::Line;
+using rungs::model::Load;
+using rungs::model::LoadNetwork;
+using rungs::model::NetworkKind;
+using rungs::model::Shape;
+using rungs::model::WaveKind;
 using rungs::sim::Complex;
 using rungs::sim::exact_reference;
 using rungs::sim::find_node;
@@ -228,7 +228,7 @@ TEST_CASE("a switch that closes over a ramp lets the line's end fall along it") 
   Line pfl = line("pfl", "far", "sw", 50.0, 10e-9);
   pfl.charged = 10.0;
   c.lines.push_back(pfl);
-  rungs::physics::LoadNetwork open;
+  rungs::model::LoadNetwork open;
   open.kind = NetworkKind::open;
   c.loads.push_back(load("far", open));
   Load switched = load("sw", element(ElementKind::resistor, 50.0));

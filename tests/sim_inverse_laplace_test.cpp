@@ -8,15 +8,15 @@
 #include <string>
 #include <vector>
 
-#include "physics/circuit.h"
-#include "sim/characteristics.h"
-#include "sim/frequency_drives.h"
-#include "sim/inverse_laplace.h"
-#include "sim/two_port.h"
+#include "3_model/circuit.h"
+#include "4_sim/characteristics.h"
+#include "4_sim/frequency_drives.h"
+#include "4_sim/inverse_laplace.h"
+#include "4_sim/two_port.h"
 
-using rungs::physics::Drive;
-using rungs::physics::Settings;
-using rungs::physics::WaveKind;
+using rungs::model::Drive;
+using rungs::model::Settings;
+using rungs::model::WaveKind;
 using rungs::sim::Complex;
 using rungs::sim::drive_change;
 using rungs::sim::drive_voltage;

@@ -8,11 +8,11 @@
 #include <sstream>
 
 #include "ngspice.h"
-#include "physics/resolve.h"
-#include "plan/plan.h"
+#include "3_model/resolve.h"
+#include "5_plan/plan.h"
 #include "run_command.h"
-#include "sim/frequency_reference.h"
-#include "syntax/parser.h"
+#include "4_sim/frequency_reference.h"
+#include "1_syntax/parser.h"
 
 namespace ng = rungs::testing::ngspice;
 using rungs::testing::run_rungs;
@@ -53,7 +53,7 @@ TEST_CASE("the exact reference matches ngspice's ideal line within 0.2 % of the 
   const rungs::syntax::SourceFile file{"r.rungs", kDesign};
   rungs::syntax::Diagnostics diagnostics(file);
   const auto description = rungs::syntax::parse_description(diagnostics);
-  const auto circuit = rungs::physics::resolve(description, diagnostics);
+  const auto circuit = rungs::model::resolve(description, diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
   rungs::sim::ReferenceOptions options;
   options.window = 20e-9;
@@ -100,7 +100,7 @@ TEST_CASE("a switch closing over a ramp: ngspice's decks and the exact reference
   const rungs::syntax::SourceFile file{"s.rungs", design};
   rungs::syntax::Diagnostics diagnostics(file);
   const auto circuit =
-      rungs::physics::resolve(rungs::syntax::parse_description(diagnostics), diagnostics);
+      rungs::model::resolve(rungs::syntax::parse_description(diagnostics), diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
   const rungs::plan::Plan plan = rungs::plan::plan_circuit(circuit, diagnostics);
   REQUIRE(plan.closing.size() == 2);

@@ -5,9 +5,9 @@
 #include <complex>
 #include <numbers>
 
-#include "sim/two_port.h"
+#include "4_sim/two_port.h"
 
-using rungs::physics::Shape;
+using rungs::model::Shape;
 using rungs::sim::Abcd;
 using rungs::sim::Admittance;
 using rungs::sim::admittance_from_abcd;

@@ -3,8 +3,8 @@
 
 #include <string>
 
-#include "build/staleness.h"
-#include "emit/deck.h"
+#include "8_project/staleness.h"
+#include "6_emit/deck.h"
 
 using rungs::build::netlist_stale_reason;
 

@@ -3,7 +3,7 @@
 
 #include <regex>
 
-#include "report/svg_plot.h"
+#include "7_report/svg_plot.h"
 
 using namespace rungs::report;
 

@@ -2,7 +2,7 @@
 // and the errors for values a simulator would misread.
 #include <catch2/catch.hpp>
 
-#include "syntax/units.h"
+#include "1_syntax/units.h"
 
 using namespace rungs::syntax;
 using Catch::Matchers::WithinRel;

@@ -1,0 +1,31 @@
+# Fails when a source file under SOURCE_DIR includes a header of a later pipeline stage.
+# Stages are the numbered folders of src/ (1_syntax ... 9_cli): a file in stage N may
+# include stages 1..N only; grammar/ belongs to stage 1. Run as
+#   cmake -DSOURCE_DIR=src -DGRAMMAR_DIR=grammar [-DSTAMP=file] -P check_layers.cmake
+file(GLOB_RECURSE sources "${SOURCE_DIR}/*.h" "${SOURCE_DIR}/*.cpp" "${GRAMMAR_DIR}/*.h")
+set(problems "")
+foreach(path IN LISTS sources)
+  file(RELATIVE_PATH rel "${SOURCE_DIR}" "${path}")
+  if(rel MATCHES "^([1-9])_[a-z]+/")
+    set(own ${CMAKE_MATCH_1})
+  elseif(path MATCHES "^${GRAMMAR_DIR}/")
+    set(own 1)
+  else()
+    continue()
+  endif()
+  file(STRINGS "${path}" includes REGEX "^[ \t]*#[ \t]*include[ \t]*\"[1-9]_")
+  foreach(line IN LISTS includes)
+    string(REGEX MATCH "\"([1-9])_[a-z]+/[^\"]*\"" header "${line}")
+    set(stage ${CMAKE_MATCH_1})
+    if(stage GREATER own)
+      string(APPEND problems "  ${path}: includes ${header}, a later stage\n")
+    endif()
+  endforeach()
+endforeach()
+if(problems)
+  message(FATAL_ERROR "backward includes (a stage may include only the stages before it, "
+                      "see DEVELOPERS.md):\n${problems}")
+endif()
+if(STAMP)
+  file(TOUCH "${STAMP}")
+endif()

@@ -1,0 +1,46 @@
+// The one path by which every user-facing error and warning is collected and printed.
+#pragma once
+#include <string>
+#include <vector>
+
+#include "1_syntax/source.h"
+
+namespace rungs::syntax {
+
+enum class Severity { error, warning };
+
+/// One message about a span of the source.
+struct Diagnostic {
+  Severity severity = Severity::error;
+  Span span;
+  std::string message;
+};
+
+/// Collects the diagnostics of one source file. Messages are short, lower case, and say what
+/// was expected and what to write instead; they carry no location (the span gives it).
+class Diagnostics {
+ public:
+  explicit Diagnostics(const SourceFile& file) : file_(&file) {}
+
+  void error(Span span, std::string message);
+  void warning(Span span, std::string message);
+
+  bool has_errors() const { return error_count_ > 0; }
+  int error_count() const { return error_count_; }
+  const std::vector<Diagnostic>& all() const { return list_; }
+  const SourceFile& file() const { return *file_; }
+
+  /// Every diagnostic in source order, each as
+  /// `file:line:col: error: message`, the source line, and a caret with tildes under the span.
+  std::string render() const;
+
+ private:
+  const SourceFile* file_;
+  std::vector<Diagnostic> list_;
+  int error_count_ = 0;
+};
+
+/// One diagnostic in the format of Diagnostics::render.
+std::string render_diagnostic(const SourceFile& file, const Diagnostic& diagnostic);
+
+}  // namespace rungs::syntax

@@ -1,0 +1,49 @@
+// Locating byte offsets of a description as lines and columns.
+#include "1_syntax/source.h"
+
+#include <algorithm>
+
+namespace rungs::syntax {
+
+namespace {
+bool is_continuation_byte(char c) { return (static_cast<unsigned char>(c) & 0xC0) == 0x80; }
+
+/// A line ends at LF, or at a CR that no LF follows (old Mac files); CRLF counts once.
+bool breaks_line(std::string_view text, std::size_t i) {
+  return text[i] == '\n' || (text[i] == '\r' && (i + 1 == text.size() || text[i + 1] != '\n'));
+}
+}  // namespace
+
+Location SourceFile::locate(std::size_t offset) const {
+  offset = std::min(offset, text.size());
+  Location where;
+  std::size_t line_start = 0;
+  for (std::size_t i = 0; i < offset; ++i) {
+    if (breaks_line(text, i)) {
+      ++where.line;
+      line_start = i + 1;
+    }
+  }
+  for (std::size_t i = line_start; i < offset; ++i) {
+    if (!is_continuation_byte(text[i])) ++where.column;
+  }
+  return where;
+}
+
+std::string_view SourceFile::line_of(std::size_t offset) const {
+  std::string_view all(text);
+  offset = std::min(offset, all.size());
+  std::size_t begin = offset;
+  while (begin > 0 && !breaks_line(all, begin - 1)) --begin;
+  std::size_t end = offset;
+  while (end < all.size() && all[end] != '\n' && all[end] != '\r') ++end;
+  return all.substr(begin, end - begin);
+}
+
+std::string_view SourceFile::slice(Span span) const {
+  std::size_t begin = std::min(span.begin, text.size());
+  std::size_t end = std::clamp(span.end, begin, text.size());
+  return std::string_view(text).substr(begin, end - begin);
+}
+
+}  // namespace rungs::syntax

@@ -1,0 +1,607 @@
+// Nodal analysis at a complex frequency: two-ports, loads and drives stamped into one matrix.
+//
+// Each line is a two-port in admittance form between its end nodes (ground rows dropped); a
+// drive behind a resistance is a Norton source; a zero-resistance drive or a short fixes its
+// node, whose known voltage moves to the right-hand side. Charged lines add the initial-
+// condition sources of the telegrapher equations; switched loads add their compensation
+// sources. One factorization per frequency serves every source (one column each).
+#include "4_sim/frequency_network.h"
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <numeric>
+#include <stdexcept>
+
+#include <fmt/format.h>
+#include <Eigen/Dense>
+#include <Eigen/SparseCore>
+#include <Eigen/SparseLU>
+
+#include "3_model/circuit.h"
+
+namespace rungs::sim {
+
+namespace {
+
+using model::Circuit;
+using model::ElementKind;
+using model::LoadNetwork;
+using model::NetworkKind;
+
+constexpr int kGround = -1;
+// Components with more unknowns than this are factored as sparse matrices.
+constexpr int kDenseLimit = 48;
+// A conductance from every node to ground in the DC solution, so that floating nodes settle.
+constexpr double kDcLeak = 1e-12;
+
+struct LineEntry {
+  int near = kGround;
+  int far = kGround;
+  LineTotals totals;
+  std::optional<LadderSpec> ladder;
+  std::optional<double> charged;
+};
+
+struct DriveEntry {
+  int node = kGround;
+  double resistance = 0.0;
+  KinkedWave change;
+  double initial_step = 0.0;  // V applied at t = 0 in a rest start (the low level)
+  double low = 0.0;           // V before t = 0 in a settled start
+};
+
+struct LoadEntry {
+  int node = kGround;
+  const LoadNetwork* network = nullptr;
+  bool is_short = false;
+  std::optional<std::size_t> switch_index;
+};
+
+void check_elements(const LoadNetwork& n) {
+  if (n.kind == NetworkKind::single && (!(n.value >= 0.0) || !std::isfinite(n.value)))
+    throw std::invalid_argument("a load element must be zero or positive, and finite");
+  for (const LoadNetwork& part : n.parts) check_elements(part);
+}
+
+Admittance two_port(const LineEntry& line, Complex s) {
+  return line.ladder ? ladder_admittance(line.totals, *line.ladder, s)
+                     : line_admittance(line.totals, s);
+}
+
+/// Solves a x = b by Gaussian elimination with partial pivoting, overwriting b with x (and a
+/// with its factors). For the small blocks of most circuits this beats a general LU's set-up
+/// cost, which would dominate at two or three unknowns.
+void solve_in_place(Eigen::MatrixXcd& a, Eigen::MatrixXcd& b) {
+  const Eigen::Index n = a.rows();
+  const Eigen::Index m = b.cols();
+  for (Eigen::Index k = 0; k < n; ++k) {
+    Eigen::Index p = k;
+    double best = std::norm(a(k, k));
+    for (Eigen::Index r = k + 1; r < n; ++r)
+      if (std::norm(a(r, k)) > best) {
+        best = std::norm(a(r, k));
+        p = r;
+      }
+    // Every unknown has a two-port, a source resistance or a load to ground, and Re s > 0
+    // makes each of those passive and lossy, so the matrix is regular.
+    if (best == 0.0) throw std::runtime_error("the nodal matrix is singular");
+    if (p != k) {
+      a.row(k).swap(a.row(p));
+      b.row(k).swap(b.row(p));
+    }
+    const Complex inverse = reciprocal(a(k, k));
+    for (Eigen::Index r = k + 1; r < n; ++r) {
+      const Complex f = a(r, k) * inverse;
+      if (f == Complex(0.0, 0.0)) continue;
+      for (Eigen::Index c = k + 1; c < n; ++c) a(r, c) -= f * a(k, c);
+      for (Eigen::Index c = 0; c < m; ++c) b(r, c) -= f * b(k, c);
+    }
+  }
+  for (Eigen::Index r = n; r-- > 0;) {
+    const Complex inverse = reciprocal(a(r, r));
+    for (Eigen::Index c = 0; c < m; ++c) {
+      Complex sum = b(r, c);
+      for (Eigen::Index q = r + 1; q < n; ++q) sum -= a(r, q) * b(q, c);
+      b(r, c) = sum * inverse;
+    }
+  }
+}
+
+/// The unknowns of one switch position: which nodes are free, forced or empty, and the
+/// matrix and factorization that stay allocated from one frequency to the next.
+struct Stage {
+  std::vector<int> free_of;    // node -> unknown index, or -1
+  std::vector<int> forced_of;  // node -> forced index, or -1
+  std::vector<int> forced_nodes;
+  int unknowns = 0;
+  bool sparse = false;
+  Eigen::MatrixXcd dense;
+  Eigen::SparseMatrix<Complex> matrix;
+  Eigen::SparseLU<Eigen::SparseMatrix<Complex>> sparse_lu;
+  bool analyzed = false;
+};
+
+/// Adds admittances and currents to one switch position's equations. Ground and the rows of
+/// forced or empty nodes take nothing; a forced node's column moves to the right-hand side with
+/// its known voltage.
+struct Stamper {
+  Stage& st;
+  Eigen::MatrixXcd& rhs;
+  const Eigen::MatrixXcd& forced;
+
+  void admittance(int p, int q, Complex y) const {
+    if (p == kGround || q == kGround) return;
+    const int fp = st.free_of[p];
+    if (fp < 0) return;
+    const int fq = st.free_of[q];
+    if (fq >= 0) {
+      if (st.sparse)
+        st.matrix.coeffRef(fp, fq) += y;
+      else
+        st.dense(fp, fq) += y;
+    } else if (st.forced_of[q] >= 0) {
+      rhs.row(fp) -= y * forced.row(st.forced_of[q]);
+    }
+  }
+  void current(int p, Eigen::Index column, Complex i) const {
+    if (p == kGround || st.free_of[p] < 0) return;
+    rhs(st.free_of[p], column) += i;
+  }
+  void two_port(int near, int far, const Admittance& y) const {
+    admittance(near, near, y.y11);
+    admittance(far, far, y.y22);
+    admittance(near, far, y.y12);
+    admittance(far, near, y.y12);
+  }
+};
+
+}  // namespace
+
+struct FrequencyNetwork::Impl {
+  Impl(const Circuit& circuit, const std::vector<std::optional<LadderSpec>>& ladders,
+       InitialState initial);
+
+  int node_of(const std::string& name);
+  void add_line(const model::Line& line, std::optional<LadderSpec> ladder, std::size_t index);
+  void add_drive(const Circuit& circuit, std::size_t index);
+  void add_load(const model::Load& load, std::size_t index);
+  void order_switches(const Circuit& circuit);
+  void solve_steady();
+  Stage& stage(std::size_t closed);
+  Complex drive_transform(const DriveEntry& d, Complex s) const;
+  void known_voltages(Complex s, std::size_t closed, const Eigen::MatrixXcd& compensation,
+                      const Stage& st);
+  void stamp_network(Complex s, std::size_t closed, const Eigen::MatrixXcd& compensation,
+                     const Stamper& stamp);
+  void solve(Complex s, std::size_t closed, const Eigen::MatrixXcd& compensation,
+             Eigen::MatrixXcd& v);
+
+  std::map<std::string, int> index;
+  std::vector<std::string> names;
+  std::vector<LineEntry> lines;
+  std::vector<DriveEntry> drives;
+  std::vector<LoadEntry> loads;
+  std::vector<Source> sources;
+  std::vector<Switch> switches;
+  InitialState start = InitialState::settled;
+  Eigen::MatrixXd steady;
+  std::map<std::size_t, Stage> stages;
+  // Buffers reused across frequencies.
+  std::vector<Admittance> line_y;
+  Eigen::MatrixXcd rhs;
+  Eigen::MatrixXcd forced;
+  Eigen::MatrixXcd unknowns;
+};
+
+FrequencyNetwork::Impl::Impl(const Circuit& circuit,
+                             const std::vector<std::optional<LadderSpec>>& ladders,
+                             InitialState initial) {
+  if (!ladders.empty() && ladders.size() != circuit.lines.size())
+    throw std::invalid_argument("give a ladder choice for every line, or none");
+  const bool charged = std::any_of(circuit.lines.begin(), circuit.lines.end(),
+                                   [](const model::Line& l) { return l.charged.has_value(); });
+  start = initial == InitialState::automatic
+              ? (charged ? InitialState::rest : InitialState::settled)
+              : initial;
+  if (start == InitialState::settled && charged)
+    throw std::invalid_argument(
+        "a charged line starts from rest: its charge is not a DC state of the circuit");
+  for (std::size_t k = 0; k < circuit.lines.size(); ++k)
+    add_line(circuit.lines[k], ladders.empty() ? std::nullopt : ladders[k], k);
+  for (std::size_t d = 0; d < circuit.drives.size(); ++d) add_drive(circuit, d);
+  for (const model::Load& load : circuit.loads)
+    if (!model::is_ground(load.node)) node_of(load.node);
+  for (std::size_t k = 0; k < circuit.lines.size(); ++k)
+    if (circuit.lines[k].charged)
+      sources.push_back({Source::Kind::charge, k, *circuit.lines[k].charged});
+  for (std::size_t l = 0; l < circuit.loads.size(); ++l) add_load(circuit.loads[l], l);
+  order_switches(circuit);
+  solve_steady();
+}
+
+int FrequencyNetwork::Impl::node_of(const std::string& name) {
+  if (model::is_ground(name)) return kGround;
+  auto [it, fresh] = index.emplace(name, static_cast<int>(names.size()));
+  if (fresh) names.push_back(name);
+  return it->second;
+}
+
+void FrequencyNetwork::Impl::add_line(const model::Line& line, std::optional<LadderSpec> ladder,
+                                      std::size_t) {
+  if (!(line.z0 > 0.0) || !std::isfinite(line.z0) || !(line.delay > 0.0) ||
+      !std::isfinite(line.delay))
+    throw std::invalid_argument(
+        fmt::format("line '{}' needs a positive, finite z0 and delay", line.name));
+  if (ladder && ladder->sections < 1)
+    throw std::invalid_argument(
+        fmt::format("line '{}': a ladder needs at least one section", line.name));
+  LineEntry e;
+  e.near = node_of(line.near);
+  e.far = node_of(line.far);
+  e.totals = line_totals(line);
+  if (!(e.totals.r >= 0.0) || !(e.totals.g >= 0.0) || !std::isfinite(e.totals.r) ||
+      !std::isfinite(e.totals.g))
+    throw std::invalid_argument(
+        fmt::format("line '{}' needs r and g zero or positive, and finite", line.name));
+  e.ladder = ladder;
+  e.charged = line.charged;
+  lines.push_back(e);
+}
+
+void FrequencyNetwork::Impl::add_drive(const Circuit& circuit, std::size_t index_in_circuit) {
+  const model::Drive& drive = circuit.drives[index_in_circuit];
+  DriveEntry e;
+  e.node = node_of(drive.node);
+  if (e.node == kGround) throw std::invalid_argument("a drive cannot be on ground");
+  e.resistance = drive.source_resistance;
+  if (!(e.resistance >= 0.0) || !std::isfinite(e.resistance))
+    throw std::invalid_argument("a source resistance must be zero or positive, and finite");
+  e.change = drive_change(drive, circuit.settings);
+  const double low = drive.kind == model::WaveKind::dc ? 0.0 : drive.low;
+  if (start == InitialState::rest)
+    e.initial_step = low;
+  else
+    e.low = low;
+  if (e.resistance == 0.0)
+    for (const DriveEntry& other : drives)
+      if (other.resistance == 0.0 && other.node == e.node)
+        throw std::invalid_argument(fmt::format(
+            "node '{}' has two drives without source resistance; they would fight", drive.node));
+  drives.push_back(std::move(e));
+  sources.push_back({Source::Kind::drive, index_in_circuit, drive.high - low});
+}
+
+void FrequencyNetwork::Impl::add_load(const model::Load& load, std::size_t) {
+  check_elements(load.network);
+  LoadEntry e;
+  e.node = node_of(load.node);
+  e.network = &load.network;
+  // Whether the network is open, a short or neither does not depend on s (the frequency here
+  // only probes its structure).
+  const LoadAdmittance probe = load_admittance(load.network, Complex(1.0, 1.0));
+  if (e.node == kGround || probe.kind == LoadAdmittance::Kind::open) {
+    e.node = kGround;  // nothing to stamp
+    loads.push_back(e);
+    return;
+  }
+  e.is_short = probe.kind == LoadAdmittance::Kind::short_circuit;
+  if (e.is_short)
+    for (const DriveEntry& d : drives)
+      if (d.resistance == 0.0 && d.node == e.node)
+        throw std::invalid_argument(
+            fmt::format("node '{}' has a short and a drive without source resistance", load.node));
+  loads.push_back(e);
+}
+
+void FrequencyNetwork::Impl::order_switches(const Circuit& circuit) {
+  for (std::size_t l = 0; l < loads.size(); ++l) {
+    const std::optional<double>& at = circuit.loads[l].at;
+    // A load switched at or before t = 0 is simply connected, as in the characteristics run.
+    if (loads[l].node == kGround || !at || !(*at > 0.0)) continue;
+    switches.push_back({l, static_cast<std::size_t>(loads[l].node), *at, loads[l].is_short});
+  }
+  std::stable_sort(switches.begin(), switches.end(),
+                   [](const Switch& a, const Switch& b) { return a.at < b.at; });
+  for (std::size_t i = 0; i < switches.size(); ++i) loads[switches[i].load].switch_index = i;
+}
+
+Complex FrequencyNetwork::Impl::drive_transform(const DriveEntry& d, Complex s) const {
+  const Complex change = laplace_transform(d.change, s);
+  return d.initial_step != 0.0 ? change + d.initial_step / s : change;
+}
+
+Stage& FrequencyNetwork::Impl::stage(std::size_t closed) {
+  auto found = stages.find(closed);
+  if (found != stages.end()) return found->second;
+  Stage& st = stages[closed];
+  const std::size_t n = names.size();
+  std::vector<bool> is_forced(n, false);
+  std::vector<bool> touched(n, false);
+  for (const LineEntry& l : lines) {
+    if (l.near != kGround) touched[l.near] = true;
+    if (l.far != kGround) touched[l.far] = true;
+  }
+  for (const DriveEntry& d : drives) {
+    if (d.resistance == 0.0)
+      is_forced[d.node] = true;
+    else
+      touched[d.node] = true;
+  }
+  for (const LoadEntry& l : loads) {
+    if (l.node == kGround) continue;
+    if (l.switch_index && *l.switch_index >= closed) continue;
+    if (l.is_short)
+      is_forced[l.node] = true;
+    else
+      touched[l.node] = true;
+  }
+  st.free_of.assign(n, -1);
+  st.forced_of.assign(n, -1);
+  for (std::size_t i = 0; i < n; ++i) {
+    if (is_forced[i]) {
+      st.forced_of[i] = static_cast<int>(st.forced_nodes.size());
+      st.forced_nodes.push_back(static_cast<int>(i));
+    } else if (touched[i]) {
+      st.free_of[i] = st.unknowns++;
+    }
+    // A node nothing touches (an open end of nothing, or the node of a switch still open) is
+    // left out of the equations at 0 V, as in the characteristics run.
+  }
+  st.sparse = st.unknowns > kDenseLimit;
+  if (st.sparse) {
+    std::vector<Eigen::Triplet<Complex>> pattern;
+    const auto entry = [&](int p, int q) {
+      if (p == kGround || q == kGround) return;
+      const int fp = st.free_of[p];
+      const int fq = st.free_of[q];
+      if (fp >= 0 && fq >= 0) pattern.emplace_back(fp, fq, Complex(0.0, 0.0));
+    };
+    for (int i = 0; i < st.unknowns; ++i) pattern.emplace_back(i, i, Complex(0.0, 0.0));
+    for (const LineEntry& l : lines) {
+      entry(l.near, l.far);
+      entry(l.far, l.near);
+    }
+    st.matrix.resize(st.unknowns, st.unknowns);
+    st.matrix.setFromTriplets(pattern.begin(), pattern.end());
+    st.matrix.makeCompressed();
+  } else {
+    st.dense.resize(st.unknowns, st.unknowns);
+  }
+  return st;
+}
+
+void FrequencyNetwork::Impl::known_voltages(Complex s, std::size_t closed,
+                                            const Eigen::MatrixXcd& compensation, const Stage& st) {
+  // A zero-resistance drive carries its own transform in its column; a short holds 0 V, or its
+  // compensation source while it is a switch that closed.
+  forced.setZero(static_cast<Eigen::Index>(st.forced_nodes.size()),
+                 static_cast<Eigen::Index>(sources.size()));
+  for (std::size_t d = 0; d < drives.size(); ++d)
+    if (drives[d].resistance == 0.0)
+      forced(st.forced_of[drives[d].node], static_cast<Eigen::Index>(d)) =
+          drive_transform(drives[d], s);
+  for (const LoadEntry& l : loads)
+    if (l.node != kGround && l.is_short && l.switch_index && *l.switch_index < closed)
+      forced.row(st.forced_of[l.node]) =
+          compensation.row(static_cast<Eigen::Index>(*l.switch_index));
+}
+
+void FrequencyNetwork::Impl::stamp_network(Complex s, std::size_t closed,
+                                           const Eigen::MatrixXcd& compensation,
+                                           const Stamper& stamp) {
+  const Eigen::Index m = static_cast<Eigen::Index>(sources.size());
+  line_y.resize(lines.size());
+  for (std::size_t k = 0; k < lines.size(); ++k) {
+    line_y[k] = two_port(lines[k], s);
+    stamp.two_port(lines[k].near, lines[k].far, line_y[k]);
+  }
+  // A line charged to V0 (zero current) obeys the telegrapher equations with initial-condition
+  // sources; V = C' V0 / (G' + s C') along it with no current solves them, so its ports see the
+  // uncharged two-port around that voltage, I = Y (V - Vp [1; 1]): a Norton source Y Vp [1; 1].
+  // A ladder whose capacitors all start at V0 has the same particular solution.
+  for (Eigen::Index c = 0; c < m; ++c) {
+    const Source& src = sources[static_cast<std::size_t>(c)];
+    if (src.kind != Source::Kind::charge) continue;
+    const LineEntry& l = lines[src.index];
+    const Admittance& y = line_y[src.index];
+    const Complex vp = *l.charged * reciprocal(s + l.totals.g / l.totals.c);
+    stamp.current(l.near, c, (y.y11 + y.y12) * vp);
+    stamp.current(l.far, c, (y.y12 + y.y22) * vp);
+  }
+  for (std::size_t d = 0; d < drives.size(); ++d) {
+    const DriveEntry& e = drives[d];
+    if (e.resistance == 0.0) continue;
+    const double g = 1.0 / e.resistance;
+    stamp.admittance(e.node, e.node, g);
+    stamp.current(e.node, static_cast<Eigen::Index>(d), g * drive_transform(e, s));
+  }
+  for (const LoadEntry& l : loads) {
+    if (l.node == kGround || l.is_short) continue;
+    if (l.switch_index && *l.switch_index >= closed) continue;
+    const Complex y = load_admittance(*l.network, s).y;
+    stamp.admittance(l.node, l.node, y);
+    // In series with a closed switch's compensation source e: the branch current is
+    // Y (v - e), a Norton source Y e.
+    if (l.switch_index)
+      for (Eigen::Index c = 0; c < m; ++c)
+        stamp.current(l.node, c, y * compensation(static_cast<Eigen::Index>(*l.switch_index), c));
+  }
+}
+
+void FrequencyNetwork::Impl::solve(Complex s, std::size_t closed,
+                                   const Eigen::MatrixXcd& compensation, Eigen::MatrixXcd& v) {
+  if (closed > switches.size()) throw std::invalid_argument("more switches closed than exist");
+  if (closed > 0 && (compensation.rows() < static_cast<Eigen::Index>(closed) ||
+                     compensation.cols() != static_cast<Eigen::Index>(sources.size())))
+    throw std::invalid_argument(
+        "the compensation needs a row per closed switch, a column per source");
+  Stage& st = stage(closed);
+  const Eigen::Index m = static_cast<Eigen::Index>(sources.size());
+  known_voltages(s, closed, compensation, st);
+  rhs.setZero(st.unknowns, m);
+  if (st.sparse)
+    std::fill(st.matrix.valuePtr(), st.matrix.valuePtr() + st.matrix.nonZeros(), Complex(0.0, 0.0));
+  else
+    st.dense.setZero();
+  stamp_network(s, closed, compensation, Stamper{st, rhs, forced});
+  if (st.unknowns > 0) {
+    if (st.sparse) {
+      if (!st.analyzed) {
+        st.sparse_lu.analyzePattern(st.matrix);
+        st.analyzed = true;
+      }
+      st.sparse_lu.factorize(st.matrix);
+      if (st.sparse_lu.info() != Eigen::Success)
+        throw std::runtime_error("the nodal matrix could not be factored");
+      unknowns = st.sparse_lu.solve(rhs);
+    } else {
+      solve_in_place(st.dense, rhs);
+      unknowns.swap(rhs);
+    }
+  }
+  v.setZero(static_cast<Eigen::Index>(names.size()), m);
+  for (std::size_t i = 0; i < names.size(); ++i) {
+    const auto row = static_cast<Eigen::Index>(i);
+    if (st.free_of[i] >= 0)
+      v.row(row) = unknowns.row(st.free_of[i]);
+    else if (st.forced_of[i] >= 0)
+      v.row(row) = forced.row(st.forced_of[i]);
+  }
+}
+
+void FrequencyNetwork::Impl::solve_steady() {
+  const std::size_t n = names.size();
+  const Eigen::Index m = static_cast<Eigen::Index>(sources.size());
+  steady.setZero(static_cast<Eigen::Index>(n), m);
+  if (start != InitialState::settled) return;
+  if (std::none_of(drives.begin(), drives.end(), [](const DriveEntry& d) { return d.low != 0.0; }))
+    return;
+  // Lossless-in-series lines are shorts at DC: merge the nodes they join (ground is n).
+  std::vector<std::size_t> parent(n + 1);
+  std::iota(parent.begin(), parent.end(), 0);
+  const auto id = [n](int node) { return node == kGround ? n : static_cast<std::size_t>(node); };
+  const auto find = [&](std::size_t i) {
+    while (parent[i] != i) i = parent[i] = parent[parent[i]];
+    return i;
+  };
+  for (const LineEntry& l : lines)
+    if (l.totals.r == 0.0) parent[find(id(l.near))] = find(id(l.far));
+  // The value each merged set is held at, per column, when a source fixes it.
+  std::map<std::size_t, Eigen::RowVectorXd> held;
+  std::map<std::size_t, int> holders;
+  const auto hold = [&](std::size_t set, Eigen::RowVectorXd value) {
+    auto [it, fresh] = held.emplace(set, value);
+    if (!fresh && (it->second - value).cwiseAbs().maxCoeff() > 0.0)
+      throw std::invalid_argument(
+          "a drive without source resistance is joined to another fixed voltage by a lossless "
+          "path: the DC state would short it");
+    ++holders[set];
+  };
+  hold(find(n), Eigen::RowVectorXd::Zero(m));
+  for (std::size_t d = 0; d < drives.size(); ++d) {
+    if (drives[d].resistance != 0.0) continue;
+    Eigen::RowVectorXd value = Eigen::RowVectorXd::Zero(m);
+    value(static_cast<Eigen::Index>(d)) = drives[d].low;
+    hold(find(id(drives[d].node)), value);
+  }
+  for (const LoadEntry& l : loads) {
+    if (l.node == kGround || l.switch_index) continue;
+    if (load_admittance(*l.network, 0.0).kind == LoadAdmittance::Kind::short_circuit)
+      hold(find(id(l.node)), Eigen::RowVectorXd::Zero(m));
+  }
+  std::map<std::size_t, int> unknown_of;
+  for (std::size_t i = 0; i < n; ++i) {
+    const std::size_t set = find(i);
+    if (!held.count(set)) unknown_of.emplace(set, static_cast<int>(unknown_of.size()));
+  }
+  const int u = static_cast<int>(unknown_of.size());
+  Eigen::MatrixXd a = Eigen::MatrixXd::Zero(u, u);
+  Eigen::MatrixXd b = Eigen::MatrixXd::Zero(u, m);
+  for (int i = 0; i < u; ++i) a(i, i) = kDcLeak;
+  const auto add = [&](int p, int q, double y) {
+    const std::size_t sp = find(id(p));
+    const std::size_t sq = find(id(q));
+    auto fp = unknown_of.find(sp);
+    if (fp == unknown_of.end()) return;
+    auto fq = unknown_of.find(sq);
+    if (fq != unknown_of.end())
+      a(fp->second, fq->second) += y;
+    else
+      b.row(fp->second) -= y * held.at(sq);
+  };
+  const auto inject = [&](int p, Eigen::Index column, double current) {
+    auto fp = unknown_of.find(find(id(p)));
+    if (fp != unknown_of.end()) b(fp->second, column) += current;
+  };
+  for (const LineEntry& l : lines) {
+    if (l.totals.r == 0.0) {
+      add(l.near, l.near, l.totals.g);  // the line's whole leakage, at its one DC voltage
+      continue;
+    }
+    Admittance y;
+    if (l.totals.g == 0.0) {
+      y = {1.0 / l.totals.r, -1.0 / l.totals.r, 1.0 / l.totals.r};
+    } else {
+      y = two_port(l, 0.0);  // finite at s = 0 when R and G are both positive
+    }
+    add(l.near, l.near, y.y11.real());
+    add(l.far, l.far, y.y22.real());
+    add(l.near, l.far, y.y12.real());
+    add(l.far, l.near, y.y12.real());
+  }
+  for (std::size_t d = 0; d < drives.size(); ++d) {
+    const DriveEntry& e = drives[d];
+    if (e.resistance == 0.0) continue;
+    add(e.node, e.node, 1.0 / e.resistance);
+    inject(e.node, static_cast<Eigen::Index>(d), e.low / e.resistance);
+  }
+  for (const LoadEntry& l : loads) {
+    if (l.node == kGround || l.switch_index) continue;
+    const LoadAdmittance y = load_admittance(*l.network, 0.0);
+    if (y.kind == LoadAdmittance::Kind::finite) add(l.node, l.node, y.y.real());
+  }
+  Eigen::MatrixXd solution;
+  if (u > 0) solution = a.partialPivLu().solve(b);
+  for (std::size_t i = 0; i < n; ++i) {
+    const std::size_t set = find(i);
+    auto it = unknown_of.find(set);
+    steady.row(static_cast<Eigen::Index>(i)) =
+        it != unknown_of.end() ? Eigen::RowVectorXd(solution.row(it->second)) : held.at(set);
+  }
+}
+
+FrequencyNetwork::FrequencyNetwork(const Circuit& circuit,
+                                   const std::vector<std::optional<LadderSpec>>& ladders,
+                                   InitialState initial)
+    : impl_(std::make_unique<Impl>(circuit, ladders, initial)) {}
+FrequencyNetwork::~FrequencyNetwork() = default;
+FrequencyNetwork::FrequencyNetwork(FrequencyNetwork&&) noexcept = default;
+FrequencyNetwork& FrequencyNetwork::operator=(FrequencyNetwork&&) noexcept = default;
+
+const std::vector<std::string>& FrequencyNetwork::nodes() const {
+  return impl_->names;
+}
+const std::vector<Source>& FrequencyNetwork::sources() const {
+  return impl_->sources;
+}
+const std::vector<Switch>& FrequencyNetwork::switches() const {
+  return impl_->switches;
+}
+InitialState FrequencyNetwork::initial() const {
+  return impl_->start;
+}
+const Eigen::MatrixXd& FrequencyNetwork::steady() const {
+  return impl_->steady;
+}
+
+void FrequencyNetwork::solve(Complex s, std::size_t closed, const Eigen::MatrixXcd& compensation,
+                             Eigen::MatrixXcd& v) {
+  impl_->solve(s, closed, compensation, v);
+}
+
+Complex FrequencyNetwork::switch_admittance(std::size_t i, Complex s) const {
+  return load_admittance(*impl_->loads.at(impl_->switches.at(i).load).network, s).y;
+}
+
+}  // namespace rungs::sim

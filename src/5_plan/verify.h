@@ -1,0 +1,85 @@
+// The verified planner: section counts measured against the exact reference rather than
+// estimated, and the smallest count that meets each line's tolerance.
+#pragma once
+#include <optional>
+#include <utility>
+#include <vector>
+
+#include "3_model/circuit.h"
+#include "5_plan/plan.h"
+#include "4_sim/frequency_reference.h"
+#include "4_sim/two_port.h"
+
+namespace rungs::plan {
+
+/// One line's ladder measured against the exact line, as fractions of the swing of the drive
+/// that causes each difference (sim/error_measure.h).
+struct LineVerdict {
+  double error = 0.0;                 // the larger of the line's two ends, all ladders in place
+  std::optional<double> delay_error;  // s, the 50 %-crossing error of larger magnitude
+  double overshoot_error = 0.0;       // of larger magnitude over the two ends
+  double rule_error = 0.0;            // the same error with every line at its rule count
+  /// error plus the measurement's own estimated accuracy is within the line's tolerance: the
+  /// count is adequate only when the budget holds with the measure's uncertainty added.
+  bool adequate = false;
+  /// The line fails even with every planned line exact: the fixed ladders (sections=) of the
+  /// lines it meets cause its error, so the planner left the others as they were.
+  bool owed_to_fixed = false;
+};
+
+struct Verification {
+  std::vector<LineVerdict> lines;  // parallel to circuit.lines
+  /// Estimated error of the measured figures (LadderError::accuracy of the plan's ladders).
+  double accuracy = 0.0;
+  /// Whether the exact reference met its target (the smallest tolerance over 20).
+  bool reference_within_target = false;
+};
+
+/// Each connected part of the circuit (sim::connected_parts) is measured on its own, against its
+/// own reference, in what follows.
+///
+/// Measures the plan's ladders against the exact reference (target: the smallest line
+/// tolerance over 20; window plan.window) and, for the common rule's counts, their error too.
+/// Throws what sim::exact_reference throws (e.g. std::invalid_argument for a zero window).
+Verification verify_plan(const model::Circuit& circuit, const Plan& plan);
+
+/// The smallest N per line (in the shape planned) whose whole-circuit error, plus the
+/// measure's accuracy, is within the line's tolerance:
+/// 1. each line alone, every other line exact: from the analytic N, exponential steps (halving
+///    while it passes, doubling while it fails) bracket the smallest passing N, then bisection
+///    narrows the bracket;
+/// 2. the error is not monotonic in N everywhere (a ladder's ringing can line up with a
+///    corner of the edge), so after bisection N-1 and N-2 are measured too, and twelve counts
+///    spread over the quarter below N; while any passes the search moves down to it and looks
+///    again;
+/// 3. all lines together: their errors add where they meet. While a line fails its
+///    tolerance, the planned lines that meet it (it and those that share one of its ends)
+///    search again as in 1-2 (without the twelve counts), each alone against a smaller share of its tolerance (cut by the
+///    worst failing line's ratio of budget to error, between a tenth and a half a round), and
+///    the whole circuit is measured again, up to 24 rounds. Counts measured once are not
+///    measured again. A line that fails with only the fixed (sections=) ladders in place is
+///    marked owed_to_fixed and raises nothing.
+/// Lines with sections= (LinePlan::fixed) are verified, not changed. Returns the plan with the
+/// new counts (section values, cutoff, elements, predicted errors and time step recomputed)
+/// and its verification.
+std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit,
+                                            const Plan& analytic);
+
+/// The exact reference's options for a plan: its window, and a target of a twentieth of the
+/// smallest line tolerance (the reference's estimate is about its error, not a bound).
+sim::ReferenceOptions reference_options(const Plan& plan);
+
+/// The plan's ladders as the frequency-domain solution takes them; with `rule`, at the common
+/// rule's counts.
+std::vector<sim::LadderSpec> ladder_specs(const Plan& plan, bool rule = false);
+
+/// Fills plan.closing_voltage: each switch's open voltage when it starts to close, with the
+/// plan's ladders in place, from their frequency-domain solution on the grid the exact
+/// reference starts from (one sweep a part with such a switch). With no switch that closes over
+/// a ramp, all zero and no sweep. plan_verified fills it too.
+void set_closing_voltages(const model::Circuit& circuit, Plan& plan);
+
+/// Past this many sections the search stops doubling; a line that still fails keeps it.
+inline constexpr int kVerifiedMaxSections = 1'000'000;
+
+}  // namespace rungs::plan

@@ -1,0 +1,86 @@
+// The emit path that `rungs emit` and `rungs build` share: one description, its outputs.
+#pragma once
+#include <functional>
+#include <optional>
+#include <ostream>
+#include <string>
+#include <vector>
+
+#include "8_project/manifest.h"
+#include "6_emit/deck.h"
+#include "3_model/circuit.h"
+#include "5_plan/plan.h"
+#include "5_plan/verify.h"
+#include "4_sim/peak.h"
+#include "1_syntax/source.h"
+
+namespace rungs::cli {
+
+/// One description and what to make of it. Paths are as the process opens them.
+struct NetlistJob {
+  std::string source;       // the description; "-" for standard input
+  std::string header_name;  // how the deck's header names the source; empty: `source`
+  std::string output;       // the netlist; "-" for standard output
+  std::string report;       // optional: the plan report (text)
+  std::string report_json;  // optional: the plan report (JSON)
+  std::string templates;    // optional: a folder of NAME.tmpl overrides
+  bool library = false;
+  bool with_ideal = false;
+  /// Plan by the analytic estimate only; otherwise (the default) by the verified planner,
+  /// every ladder measured against the exact reference.
+  bool analytic = false;
+  std::vector<build::DefaultSetting> defaults;  // design-wide settings from a manifest
+};
+
+/// A description read, resolved and planned, with everything its outputs need.
+struct PreparedNetlist {
+  syntax::SourceFile file;
+  model::Circuit circuit;
+  plan::Plan plan;
+  emit::TemplateSet templates;
+  std::vector<std::string> template_files;  // the override files read
+  std::optional<sim::PeakEstimate> peak;    // computed when a report is asked for
+  std::optional<plan::Verification> verification;  // when the job verifies
+};
+
+/// The outcome of prepare_netlist: a netlist, or the exit code of why not.
+struct Preparation {
+  std::optional<PreparedNetlist> netlist;
+  std::string messages;  // diagnostics and errors, for standard error, in order
+  int exit_code = 0;
+};
+
+/// Reads the job's description and templates, applies its defaults, resolves, plans (with
+/// the verified planner unless job.analytic; if the exact reference cannot take the circuit, the
+/// analytic plan stands and a warning says so), fills the switches' closing voltages, and checks the templates. Writes nothing and prints nothing: every message is in `messages`.
+/// Safe to call from several threads at once.
+Preparation prepare_netlist(const NetlistJob& job);
+
+/// The verification of a prepared netlist, or null when it was planned analytically.
+const plan::Verification* verification_of(const PreparedNetlist& netlist);
+
+/// Writes the plan's charts (report/plots.h) as SVG files into `folder`, creating it. Returns
+/// an error message, or empty.
+std::string write_plots(const std::string& folder, const PreparedNetlist& netlist);
+
+/// One file a netlist job produces.
+struct JobOutput {
+  std::string path;
+  bool is_netlist = false;  // a deck (protected from overwriting a foreign file)
+  std::function<void(std::ostream&)> write;
+};
+
+/// The files of a prepared job, netlist first, then the reports asked for. The writers refer
+/// to `netlist`, which must outlive them.
+std::vector<JobOutput> job_outputs(const NetlistJob& job, const PreparedNetlist& netlist);
+
+/// What the outputs were made from, as absolute paths, for a depfile: the description and
+/// the template overrides read. Not their folder: a folder's time changes whenever a file in
+/// it is written, and outputs beside the templates would then never be up to date.
+std::vector<std::string> job_prerequisites(const NetlistJob& job, const PreparedNetlist& netlist);
+
+/// Reads a description from a path, or from standard input for "-"; on failure, `error`
+/// says why and the result is empty.
+std::optional<syntax::SourceFile> read_source(const std::string& path, std::string& error);
+
+}  // namespace rungs::cli

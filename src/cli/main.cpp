@@ -1,4 +1,0 @@
-// rungs: lumped-ladder SPICE netlists for transmission lines.
-#include "cli/commands.h"
-
-int main(int argc, char** argv) { return rungs::cli::run(argc, argv); }
