@@ -5,6 +5,7 @@
 
 #include "3_model/circuit.h"
 #include "5_plan/plan.h"
+#include "5_plan/plan_curves.h"
 
 namespace rungs::report {
 
@@ -14,10 +15,10 @@ struct PlotFile {
   std::string svg;
 };
 
-/// For each load node, the exact and the ladder waveforms over the window; for each line, the
-/// measured whole-circuit error of that line against its section count (the others as
-/// planned) with the budget and the chosen N marked. Waveforms come from the exact
-/// reference (sim/frequency_reference.h) and its ladder twin. Throws what the reference throws.
-std::vector<PlotFile> plan_plots(const model::Circuit& circuit, const plan::Plan& plan);
+/// Draws `curves` (plan::measure_plan_curves): for each load node, the exact and the ladder
+/// waveforms over the window; for each line, its measured whole-circuit error against its
+/// section count with the budget and the chosen N marked. Draws only; measures nothing.
+std::vector<PlotFile> plan_plots(const model::Circuit& circuit, const plan::Plan& plan,
+                                 const plan::PlanCurves& curves);
 
 }  // namespace rungs::report

@@ -47,13 +47,25 @@ std::string escape(std::string_view text) {
 
 std::string tick_label(double v) { return fmt::format("{:.6g}", std::abs(v) < 1e-12 ? 0.0 : v); }
 
-}  // namespace
+/// Where the plot area sits in the picture and what it spans, with the maps from data to
+/// picture coordinates.
+struct Frame {
+  double left = 80, right = 180, top = 40, bottom = 60;
+  double plot_w = 0, plot_h = 0;
+  Range xr, yr;  // yr in log10 units on a logarithmic axis
+  bool log_y = false;
+  double px(double x) const { return left + (x - xr.low) / (xr.high - xr.low) * plot_w; }
+  double py(double y) const { return py_scaled(log_y ? std::log10(y) : y); }
+  double py_scaled(double v) const { return top + (yr.high - v) / (yr.high - yr.low) * plot_h; }
+};
 
-std::string svg_line_chart(const PlotSpec& spec) {
-  const double left = 80, right = 180, top = 40, bottom = 60;
-  const double plot_w = spec.width - left - right, plot_h = spec.height - top - bottom;
-
-  Range xr, yr;
+Frame frame_for(const PlotSpec& spec) {
+  Frame f;
+  f.plot_w = spec.width - f.left - f.right;
+  f.plot_h = spec.height - f.top - f.bottom;
+  f.log_y = spec.log_y;
+  Range& xr = f.xr;
+  Range& yr = f.yr;
   for (const PlotSeries& s : spec.series) {
     for (double x : s.x) xr.take(x);
     for (double y : s.y)
@@ -70,83 +82,99 @@ std::string svg_line_chart(const PlotSpec& spec) {
   const double y_pad = 0.05 * (yr.high - yr.low);
   if (!spec.log_y) yr = {yr.low - y_pad, yr.high + y_pad};
   else yr = {std::floor(yr.low), std::ceil(yr.high)};
+  return f;
+}
 
-  auto px = [&](double x) { return left + (x - xr.low) / (xr.high - xr.low) * plot_w; };
-  auto py = [&](double y) {
-    const double v = spec.log_y ? std::log10(y) : y;
-    return top + (yr.high - v) / (yr.high - yr.low) * plot_h;
+/// Grid lines with their tick labels: 1-2-5 steps, decades on a logarithmic axis.
+std::string grid(const Frame& f) {
+  std::string svg;
+  const double xs = nice_step(f.xr.high - f.xr.low, 8);
+  for (double x = std::ceil(f.xr.low / xs) * xs; x <= f.xr.high + 1e-9 * xs; x += xs) {
+    svg += fmt::format("<line x1=\"{0:.2f}\" y1=\"{1}\" x2=\"{0:.2f}\" y2=\"{2}\" stroke=\"#e4e4e4\"/>\n"
+                       "<text x=\"{0:.2f}\" y=\"{3}\" text-anchor=\"middle\">{4}</text>\n",
+                       f.px(x), f.top, f.top + f.plot_h, f.top + f.plot_h + 16, tick_label(x));
+  }
+  auto y_tick = [&](double y_pic, double value) {
+    svg += fmt::format("<line x1=\"{0}\" y1=\"{1:.2f}\" x2=\"{2}\" y2=\"{1:.2f}\" stroke=\"#e4e4e4\"/>\n"
+                       "<text x=\"{3}\" y=\"{4:.2f}\" text-anchor=\"end\">{5}</text>\n",
+                       f.left, y_pic, f.left + f.plot_w, f.left - 6, y_pic + 4, tick_label(value));
   };
+  if (f.log_y) {
+    for (double e = f.yr.low; e <= f.yr.high + 1e-9; e += 1.0) y_tick(f.py_scaled(e), std::pow(10.0, e));
+  } else {
+    const double ys = nice_step(f.yr.high - f.yr.low, 6);
+    for (double y = std::ceil(f.yr.low / ys) * ys; y <= f.yr.high + 1e-9 * ys; y += ys)
+      y_tick(f.py(y), y);
+  }
+  return svg;
+}
 
+/// The plot area's border and the two axis labels.
+std::string axes(const Frame& f, const PlotSpec& spec) {
+  std::string svg = fmt::format("<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\" fill=\"none\" "
+                                "stroke=\"#444\"/>\n",
+                                f.left, f.top, f.plot_w, f.plot_h);
+  svg += fmt::format("<text x=\"{}\" y=\"{}\" text-anchor=\"middle\">{}</text>\n", f.left + f.plot_w / 2,
+                     spec.height - 16, escape(spec.x_label));
+  svg += fmt::format("<text x=\"18\" y=\"{0}\" text-anchor=\"middle\" transform=\"rotate(-90 18 {0})\">"
+                     "{1}</text>\n",
+                     f.top + f.plot_h / 2, escape(spec.y_label));
+  return svg;
+}
+
+std::string guide(const Frame& f, const PlotGuide& g) {
+  if (g.vertical)
+    return fmt::format("<line x1=\"{0:.2f}\" y1=\"{1}\" x2=\"{0:.2f}\" y2=\"{2}\" stroke=\"{3}\" "
+                       "stroke-dasharray=\"6 4\"/>\n<text x=\"{4:.2f}\" y=\"{5}\" fill=\"{3}\">{6}</text>\n",
+                       f.px(g.at), f.top, f.top + f.plot_h, g.colour, f.px(g.at) + 4, f.top + 14,
+                       escape(g.label));
+  return fmt::format("<line x1=\"{0}\" y1=\"{1:.2f}\" x2=\"{2}\" y2=\"{1:.2f}\" stroke=\"{3}\" "
+                     "stroke-dasharray=\"6 4\"/>\n<text x=\"{4}\" y=\"{5:.2f}\" fill=\"{3}\">{6}</text>\n",
+                     f.left, f.py(g.at), f.left + f.plot_w, g.colour, f.left + 4, f.py(g.at) - 4,
+                     escape(g.label));
+}
+
+/// One series as a polyline (with dots if asked) and its legend entry at `legend_y`.
+std::string series(const Frame& f, const PlotSeries& s, double legend_y) {
+  std::string points;
+  for (std::size_t i = 0; i < s.x.size() && i < s.y.size(); ++i) {
+    if (f.log_y && !(s.y[i] > 0)) continue;
+    points += fmt::format("{:.2f},{:.2f} ", f.px(s.x[i]), f.py(s.y[i]));
+  }
+  std::string svg = fmt::format("<polyline fill=\"none\" stroke=\"{}\" stroke-width=\"1.6\"{} points=\"{}\"/>\n",
+                                s.colour, s.dashed ? " stroke-dasharray=\"5 3\"" : "", points);
+  if (s.markers) {
+    for (std::size_t i = 0; i < s.x.size() && i < s.y.size(); ++i) {
+      if (f.log_y && !(s.y[i] > 0)) continue;
+      svg += fmt::format("<circle cx=\"{:.2f}\" cy=\"{:.2f}\" r=\"3\" fill=\"{}\"/>\n", f.px(s.x[i]),
+                         f.py(s.y[i]), s.colour);
+    }
+  }
+  const double legend_x = f.left + f.plot_w;
+  svg += fmt::format("<line x1=\"{0}\" y1=\"{1}\" x2=\"{2}\" y2=\"{1}\" stroke=\"{3}\" stroke-width=\"2\"{4}/>\n"
+                     "<text x=\"{5}\" y=\"{6}\">{7}</text>\n",
+                     legend_x + 12, legend_y, legend_x + 36, s.colour,
+                     s.dashed ? " stroke-dasharray=\"5 3\"" : "", legend_x + 42, legend_y + 4,
+                     escape(s.label));
+  return svg;
+}
+
+}  // namespace
+
+std::string svg_line_chart(const PlotSpec& spec) {
+  const Frame f = frame_for(spec);
   std::string svg = fmt::format(
       "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"{}\" height=\"{}\" viewBox=\"0 0 {} {}\" "
       "font-family=\"sans-serif\" font-size=\"12\">\n"
       "<rect width=\"100%\" height=\"100%\" fill=\"white\"/>\n"
       "<text x=\"{}\" y=\"22\" font-size=\"15\" text-anchor=\"middle\">{}</text>\n",
-      spec.width, spec.height, spec.width, spec.height, left + plot_w / 2, escape(spec.title));
-
-  // Grid and ticks.
-  const double xs = nice_step(xr.high - xr.low, 8);
-  for (double x = std::ceil(xr.low / xs) * xs; x <= xr.high + 1e-9 * xs; x += xs) {
-    svg += fmt::format("<line x1=\"{0:.2f}\" y1=\"{1}\" x2=\"{0:.2f}\" y2=\"{2}\" stroke=\"#e4e4e4\"/>\n"
-                       "<text x=\"{0:.2f}\" y=\"{3}\" text-anchor=\"middle\">{4}</text>\n",
-                       px(x), top, top + plot_h, top + plot_h + 16, tick_label(x));
-  }
-  if (spec.log_y) {
-    for (double e = yr.low; e <= yr.high + 1e-9; e += 1.0) {
-      const double y = top + (yr.high - e) / (yr.high - yr.low) * plot_h;
-      svg += fmt::format("<line x1=\"{0}\" y1=\"{1:.2f}\" x2=\"{2}\" y2=\"{1:.2f}\" stroke=\"#e4e4e4\"/>\n"
-                         "<text x=\"{3}\" y=\"{4:.2f}\" text-anchor=\"end\">{5}</text>\n",
-                         left, y, left + plot_w, left - 6, y + 4, tick_label(std::pow(10.0, e)));
-    }
-  } else {
-    const double ys = nice_step(yr.high - yr.low, 6);
-    for (double y = std::ceil(yr.low / ys) * ys; y <= yr.high + 1e-9 * ys; y += ys) {
-      svg += fmt::format("<line x1=\"{0}\" y1=\"{1:.2f}\" x2=\"{2}\" y2=\"{1:.2f}\" stroke=\"#e4e4e4\"/>\n"
-                         "<text x=\"{3}\" y=\"{4:.2f}\" text-anchor=\"end\">{5}</text>\n",
-                         left, py(y), left + plot_w, left - 6, py(y) + 4, tick_label(y));
-    }
-  }
-  svg += fmt::format("<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\" fill=\"none\" "
-                     "stroke=\"#444\"/>\n",
-                     left, top, plot_w, plot_h);
-  svg += fmt::format("<text x=\"{}\" y=\"{}\" text-anchor=\"middle\">{}</text>\n", left + plot_w / 2,
-                     spec.height - 16, escape(spec.x_label));
-  svg += fmt::format("<text x=\"18\" y=\"{0}\" text-anchor=\"middle\" transform=\"rotate(-90 18 {0})\">"
-                     "{1}</text>\n",
-                     top + plot_h / 2, escape(spec.y_label));
-
-  // Guides, series and legend.
-  for (const PlotGuide& g : spec.guides) {
-    if (g.vertical)
-      svg += fmt::format("<line x1=\"{0:.2f}\" y1=\"{1}\" x2=\"{0:.2f}\" y2=\"{2}\" stroke=\"{3}\" "
-                         "stroke-dasharray=\"6 4\"/>\n<text x=\"{4:.2f}\" y=\"{5}\" fill=\"{3}\">{6}</text>\n",
-                         px(g.at), top, top + plot_h, g.colour, px(g.at) + 4, top + 14, escape(g.label));
-    else
-      svg += fmt::format("<line x1=\"{0}\" y1=\"{1:.2f}\" x2=\"{2}\" y2=\"{1:.2f}\" stroke=\"{3}\" "
-                         "stroke-dasharray=\"6 4\"/>\n<text x=\"{4}\" y=\"{5:.2f}\" fill=\"{3}\">{6}</text>\n",
-                         left, py(g.at), left + plot_w, g.colour, left + 4, py(g.at) - 4, escape(g.label));
-  }
-  double legend_y = top + 10;
+      spec.width, spec.height, spec.width, spec.height, f.left + f.plot_w / 2, escape(spec.title));
+  svg += grid(f);
+  svg += axes(f, spec);
+  for (const PlotGuide& g : spec.guides) svg += guide(f, g);
+  double legend_y = f.top + 10;
   for (const PlotSeries& s : spec.series) {
-    std::string points;
-    for (std::size_t i = 0; i < s.x.size() && i < s.y.size(); ++i) {
-      if (spec.log_y && !(s.y[i] > 0)) continue;
-      points += fmt::format("{:.2f},{:.2f} ", px(s.x[i]), py(s.y[i]));
-    }
-    svg += fmt::format("<polyline fill=\"none\" stroke=\"{}\" stroke-width=\"1.6\"{} points=\"{}\"/>\n",
-                       s.colour, s.dashed ? " stroke-dasharray=\"5 3\"" : "", points);
-    if (s.markers) {
-      for (std::size_t i = 0; i < s.x.size() && i < s.y.size(); ++i) {
-        if (spec.log_y && !(s.y[i] > 0)) continue;
-        svg += fmt::format("<circle cx=\"{:.2f}\" cy=\"{:.2f}\" r=\"3\" fill=\"{}\"/>\n", px(s.x[i]),
-                           py(s.y[i]), s.colour);
-      }
-    }
-    svg += fmt::format("<line x1=\"{0}\" y1=\"{1}\" x2=\"{2}\" y2=\"{1}\" stroke=\"{3}\" stroke-width=\"2\"{4}/>\n"
-                       "<text x=\"{5}\" y=\"{6}\">{7}</text>\n",
-                       left + plot_w + 12, legend_y, left + plot_w + 36, s.colour,
-                       s.dashed ? " stroke-dasharray=\"5 3\"" : "", left + plot_w + 42, legend_y + 4,
-                       escape(s.label));
+    svg += series(f, s, legend_y);
     legend_y += 18;
   }
   svg += "</svg>\n";

@@ -163,7 +163,8 @@ std::string write_plots(const std::string& folder, const PreparedNetlist& netlis
   std::vector<report::PlotFile> plots;
   try {
     const ProgressNote note("drawing the charts");
-    plots = report::plan_plots(netlist.circuit, netlist.plan);
+    plots = report::plan_plots(netlist.circuit, netlist.plan,
+                               plan::measure_plan_curves(netlist.circuit, netlist.plan));
   } catch (const std::exception& e) {
     return fmt::format("cannot draw the charts: {}", e.what());
   }
