@@ -20,6 +20,7 @@
 #include "3_model/circuit.h"
 #include "3_model/circuit_checks.h"
 #include "3_model/connected_parts.h"
+#include "4_sim/dense_solve.h"
 
 namespace rungs::sim {
 
@@ -73,7 +74,6 @@ struct Stage {
   int unknowns = 0;
   bool sparse = false;
   Eigen::MatrixXcd dense;
-  Eigen::PartialPivLU<Eigen::MatrixXcd> dense_lu;  // its storage is kept across frequencies
   Eigen::SparseMatrix<Complex> matrix;
   Eigen::SparseLU<Eigen::SparseMatrix<Complex>> sparse_lu;
   bool analyzed = false;
@@ -470,12 +470,10 @@ void FrequencyNetwork::Impl::solve(Complex s, std::size_t closed,
         throw std::runtime_error("the nodal matrix could not be factored");
       unknowns = st.sparse_lu.solve(rhs);
     } else {
-      st.dense_lu.compute(st.dense);
       // Every unknown has a two-port, a source resistance or a load to ground, and Re s > 0
       // makes each of those passive and lossy, so the matrix is regular.
-      if ((st.dense_lu.matrixLU().diagonal().array() == Complex(0.0, 0.0)).any())
-        throw std::runtime_error("the nodal matrix is singular");
-      unknowns = st.dense_lu.solve(rhs);
+      solve_dense_in_place(st.dense, rhs);
+      unknowns.swap(rhs);
     }
   }
   v.setZero(static_cast<Eigen::Index>(names.size()), m);
