@@ -67,7 +67,8 @@ inline model::Load load(const std::string& node, model::LoadNetwork network) {
   return l;
 }
 
-/// The analytic plan of `c`, as rungs plan --analytic makes it; a test fails if it errs.
+/// The analytic plan of `c`, as rungs plan --analytic makes it; a test fails if it errs (as
+/// it does when c's edges were not derived: model::derive_edges).
 inline plan::Plan analytic_plan(const model::Circuit& c) {
   const syntax::SourceFile file{"test.rungs", ""};
   syntax::Diagnostics diagnostics(file);

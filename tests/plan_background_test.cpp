@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "3_model/circuit.h"
+#include "3_model/edges.h"
 #include "5_plan/plan.h"
 #include "5_plan/verify.h"
 #include "4_sim/error_measure.h"
@@ -38,6 +39,7 @@ Circuit open_line(double ratio, double source) {
   c.settings.shape = Shape::pi;
   c.lines.push_back(rungs::testing::ideal_line("l", "a", "b", 50.0, ratio * kRise));
   c.drives.push_back(rungs::testing::step_drive("a", 0.0, 1.0, source, kRise));
+  rungs::model::derive_edges(c);
   return c;
 }
 

@@ -7,6 +7,7 @@
 #include <string>
 
 #include "3_model/circuit.h"
+#include "3_model/edges.h"
 #include "5_plan/plan.h"
 #include "5_plan/verify.h"
 #include "4_sim/error_measure.h"
@@ -60,6 +61,7 @@ TEST_CASE("the verified planner finds issue 4's background counts and one less f
     Circuit c;
     c.lines.push_back(line("l", "a", "b", 50.0, k.ratio * rise));
     c.drives.push_back(drive(rise, 50.0));
+    rungs::model::derive_edges(c);
     const Plan analytic = analytic_plan(c);
     const auto [plan, verdict] = plan_verified(c, analytic);
     INFO("delay/rise " << k.ratio << ": analytic " << analytic.lines[0].sections << ", verified "
@@ -95,6 +97,7 @@ TEST_CASE("sections= is verified, not changed") {
   c.lines.push_back(line("l", "a", "b", 50.0, 1e-9));
   c.lines[0].sections = 5;
   c.drives.push_back(drive(1e-9, 50.0));
+  rungs::model::derive_edges(c);
   const Plan analytic = analytic_plan(c);
   REQUIRE(analytic.lines[0].fixed);
   const auto [plan, verdict] = plan_verified(c, analytic);
@@ -119,6 +122,7 @@ TEST_CASE("a two-line cascade planned together meets the budget at every end") {
   ld.network.element = ElementKind::resistor;
   ld.network.value = 100.0;
   c.loads.push_back(ld);
+  rungs::model::derive_edges(c);
   const Plan analytic = analytic_plan(c);
   const auto [plan, verdict] = plan_verified(c, analytic);
   REQUIRE(verdict.lines.size() == 2);

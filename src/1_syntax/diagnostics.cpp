@@ -5,6 +5,8 @@
 
 #include <fmt/format.h>
 
+#include "1_syntax/text.h"
+
 namespace rungs::syntax {
 
 void Diagnostics::error(Span span, std::string message) {
@@ -36,7 +38,7 @@ std::string render_diagnostic(const SourceFile& file, const Diagnostic& diagnost
   int column = 1;
   for (char c : line) {
     if (column >= where.column) break;
-    if ((static_cast<unsigned char>(c) & 0xC0) == 0x80) continue;
+    if (is_utf8_continuation(c)) continue;
     marker += c == '\t' ? '\t' : ' ';
     ++column;
   }
@@ -45,7 +47,7 @@ std::string render_diagnostic(const SourceFile& file, const Diagnostic& diagnost
   const std::size_t line_end = line_begin + line.size();
   const std::size_t span_end = std::min(diagnostic.span.end, line_end);
   for (std::size_t i = diagnostic.span.begin + 1; i < span_end; ++i) {
-    if ((static_cast<unsigned char>(file.text[i]) & 0xC0) != 0x80) marker += '~';
+    if (!is_utf8_continuation(file.text[i])) marker += '~';
   }
   return fmt::format("{}:{}:{}: {}: {}\n{}\n{}\n", file.name, where.line, where.column, label,
                      diagnostic.message, line, marker);

@@ -6,6 +6,8 @@
 #include "rules.h"  // grammar/rules.h
 #include "1_syntax/suggest.h"
 
+#include "1_syntax/text.h"
+
 namespace rungs::syntax {
 
 namespace x3 = boost::spirit::x3;
@@ -100,7 +102,7 @@ std::string expectation_message(const SourceFile& file, std::size_t line_begin,
   const std::string_view keyword = file.slice(keyword_token);
   const bool at_line_start = token.begin == keyword_token.begin;
 
-  if (!found_text.empty() && static_cast<unsigned char>(found_text[0]) >= 0x80)
+  if (!found_text.empty() && is_non_ascii(found_text[0]))
     return fmt::format("names use ASCII letters, digits and _ only, found {}", found);
   if (which == grammar::value.name) {
     const std::string_view before = token_before(file, token.begin);

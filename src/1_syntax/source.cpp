@@ -3,10 +3,11 @@
 
 #include <algorithm>
 
+#include "1_syntax/text.h"
+
 namespace rungs::syntax {
 
 namespace {
-bool is_continuation_byte(char c) { return (static_cast<unsigned char>(c) & 0xC0) == 0x80; }
 
 /// A line ends at LF, or at a CR that no LF follows (old Mac files); CRLF counts once.
 bool breaks_line(std::string_view text, std::size_t i) {
@@ -25,7 +26,7 @@ Location SourceFile::locate(std::size_t offset) const {
     }
   }
   for (std::size_t i = line_start; i < offset; ++i) {
-    if (!is_continuation_byte(text[i])) ++where.column;
+    if (!is_utf8_continuation(text[i])) ++where.column;
   }
   return where;
 }

@@ -2,16 +2,13 @@
 #include "1_syntax/suggest.h"
 
 #include <algorithm>
-#include <cctype>
 #include <vector>
 
 #include <fmt/format.h>
 
-namespace rungs::syntax {
+#include "1_syntax/text.h"
 
-namespace {
-char fold(char c) { return static_cast<char>(std::tolower(static_cast<unsigned char>(c))); }
-}  // namespace
+namespace rungs::syntax {
 
 int edit_distance(std::string_view a, std::string_view b) {
   // Optimal string alignment: Levenshtein plus transposition of neighbours, the commonest
@@ -22,9 +19,10 @@ int edit_distance(std::string_view a, std::string_view b) {
   for (std::size_t j = 0; j <= m; ++j) d[0][j] = static_cast<int>(j);
   for (std::size_t i = 1; i <= n; ++i) {
     for (std::size_t j = 1; j <= m; ++j) {
-      const int cost = fold(a[i - 1]) == fold(b[j - 1]) ? 0 : 1;
+      const int cost = fold_case(a[i - 1]) == fold_case(b[j - 1]) ? 0 : 1;
       d[i][j] = std::min({d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + cost});
-      if (i > 1 && j > 1 && fold(a[i - 1]) == fold(b[j - 2]) && fold(a[i - 2]) == fold(b[j - 1]))
+      if (i > 1 && j > 1 && fold_case(a[i - 1]) == fold_case(b[j - 2]) &&
+          fold_case(a[i - 2]) == fold_case(b[j - 1]))
         d[i][j] = std::min(d[i][j], d[i - 2][j - 2] + 1);
     }
   }

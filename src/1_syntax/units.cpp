@@ -11,6 +11,7 @@
 #include <fmt/format.h>
 
 #include "1_syntax/suggest.h"
+#include "1_syntax/text.h"
 
 namespace rungs::syntax {
 
@@ -210,8 +211,7 @@ bool is_prefix_only(std::string_view unit) {
 }
 
 bool starts_with_meg(std::string_view unit) {
-  return unit.size() >= 3 && (unit[0] | 0x20) == 'm' && (unit[1] | 0x20) == 'e' &&
-         (unit[2] | 0x20) == 'g';
+  return starts_with_folded(unit, "meg");
 }
 
 std::string missing_unit_message(std::string_view token, std::string_view number,

@@ -1,6 +1,8 @@
 // Names of circuit enumerations as the description language writes them; the ground node.
 #include "3_model/circuit.h"
 
+#include "1_syntax/text.h"
+
 namespace rungs::model {
 
 std::string_view shape_name(Shape shape) {
@@ -13,8 +15,7 @@ std::string_view shape_name(Shape shape) {
 }
 
 bool is_ground(std::string_view node) {
-  return node == "0" || (node.size() == 3 && (node[0] | 0x20) == 'g' && (node[1] | 0x20) == 'n' &&
-                         (node[2] | 0x20) == 'd');
+  return node == "0" || syntax::equals_folded(node, "gnd");
 }
 
 }  // namespace rungs::model

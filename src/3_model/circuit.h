@@ -13,6 +13,13 @@ namespace rungs::model {
 /// Section shape of a ladder: pi (C/2, L, C/2), T (L/2, C, L/2) or L (L then C).
 enum class Shape { pi, t, l };
 
+/// An edge of a drive, or the one a line is planned for: the 10-90 % time of a linear ramp and
+/// the 0-100 % time of the whole ramp (ramp_time in 3_model/edges.h).
+struct Edge {
+  double rise = 0.0;  // s
+  double ramp = 0.0;  // s
+};
+
 /// A transmission line between two nodes, with the ground as its reference.
 struct Line {
   std::string name;
@@ -36,6 +43,10 @@ struct Line {
   std::optional<double> tolerance;  // fraction of the swing
   std::optional<double> rise;       // s, 10-90 %
   std::optional<double> charged;    // V, the line's initial voltage
+
+  /// Derived by derive_edges (3_model/edges.h): the edge that reaches the line, its own rise=,
+  /// else the fastest drive in its connected part, else `set rise`; empty when none does.
+  std::optional<Edge> edge;
 };
 
 using WaveKind = syntax::ast::WaveKind;
@@ -52,6 +63,10 @@ struct Drive {
   double source_resistance = 0.0;  // ohm
   std::optional<double> width;     // s, pulse only: time at the high level
   std::optional<double> period;    // s, pulse only; empty: a single pulse
+
+  /// Derived by derive_edges (3_model/edges.h): its own rise, else `set rise`; empty when
+  /// neither is given.
+  std::optional<Edge> edge;
 };
 
 enum class ElementKind { resistor, capacitor, inductor };

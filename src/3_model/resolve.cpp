@@ -8,10 +8,11 @@
 
 #include <fmt/format.h>
 
-#include "2_physics/constants.h"
-#include "3_model/models.h"
 #include "1_syntax/suggest.h"
 #include "1_syntax/units.h"
+#include "2_physics/constants.h"
+#include "3_model/edges.h"
+#include "3_model/models.h"
 
 namespace rungs::model {
 
@@ -196,6 +197,128 @@ struct Resolver {
 
 std::string node_name(const ast::Word& w) { return is_ground(w.text) ? "0" : w.text; }
 
+/// The model a line statement names; an error with a "did you mean" when none has that name.
+const ModelSpec* line_model(const ast::Word& name, Diagnostics& d) {
+  if (const ModelSpec* model = find_model(name.text)) return model;
+  std::vector<std::string_view> names;
+  for (const ModelSpec& m : line_models()) names.push_back(m.name);
+  d.error(name.span,
+          fmt::format("unknown model '{}'{}", name.text, syntax::did_you_mean(name.text, names)));
+  return nullptr;
+}
+
+/// Reads a line's own options (sections, shape, tolerance, rise, charged) into `line` and
+/// checks the signs of the figures written beside them.
+void read_line_options(const ParamReader& params, const ast::LineStatement& s, Line& line,
+                       Diagnostics& d) {
+  if (auto n = params.get("sections")) {
+    if (*n < 1) d.error(params.span_of("sections", s.name.span), "sections must be at least 1");
+    line.sections = static_cast<int>(*n);
+  }
+  line.shape = params.shape();
+  line.tolerance = params.get("tolerance");
+  check_tolerance(line.tolerance, params.value_of("tolerance"), d);
+  params.require_positive("rise", s.name.span, "rise");
+  line.rise = params.get("rise");
+  line.charged = params.get("charged");
+  params.require_positive("length", s.name.span, "length");
+  params.require_positive("delay", s.name.span, "delay");
+  params.require_not_negative("r", s.name.span, "r");
+  params.require_not_negative("g", s.name.span, "g");
+}
+
+/// Evaluates the line's model on its parameters, reporting its problems (errors and
+/// warnings); empty when one of them is an error.
+std::optional<ModelResult> evaluate_model(const ModelSpec& model, const ParamReader& params,
+                                          const ast::LineStatement& s, Diagnostics& d) {
+  ParamValues model_values;
+  for (const ParamSpec& p : model.params)
+    if (auto v = params.get(p.key)) model_values[std::string(p.key)] = *v;
+  ModelResult result = model.evaluate(model_values);
+  bool ok = true;
+  for (const ModelProblem& problem : result.problems) {
+    const Span at = params.span_of(problem.key, s.model.span);
+    if (problem.is_error) {
+      d.error(at, problem.message);
+      ok = false;
+    } else {
+      d.warning(at, problem.message);
+    }
+  }
+  if (!ok) return std::nullopt;
+  return result;
+}
+
+/// Length, delay and speed of a line whose model gives a speed: any two fix the third, and
+/// all three must agree. False (reported) when they do not, or neither length nor delay is
+/// given.
+bool set_extent_with_speed(const ModelSpec& model, const ParamReader& params,
+                           const ast::LineStatement& s, Line& line, Diagnostics& d) {
+  const std::optional<double> length = params.get("length");
+  const std::optional<double> delay = params.get("delay");
+  if (length && delay) {
+    const double implied = *length / *delay;
+    if (std::abs(implied - line.velocity) > 1e-3 * line.velocity) {
+      d.error(params.span_of("delay", s.name.span),
+              fmt::format("length={} and delay={} imply {:.4g}c, but this {} line "
+                          "carries {:.4g}c; give only one of length= and delay=",
+                          params.text_of("length"), params.text_of("delay"),
+                          implied / physics::kSpeedOfLight, model.name,
+                          line.velocity / physics::kSpeedOfLight));
+      return false;
+    }
+  }
+  if (!length && !delay) {
+    d.error(s.model.span, fmt::format("{} needs length= (or delay=)", model.name));
+    return false;
+  }
+  line.length = length ? *length : *delay * line.velocity;
+  line.delay = delay ? *delay : *length / line.velocity;
+  return true;
+}
+
+/// Delay (required) and length (optional) of an ideal line whose model gives no speed; the
+/// speed follows from them and cannot exceed light's. False (reported) otherwise.
+bool set_extent_ideal(const ParamReader& params, const ast::LineStatement& s, Line& line,
+                      Diagnostics& d) {
+  const std::optional<double> length = params.get("length");
+  const std::optional<double> delay = params.get("delay");
+  if (!delay) {
+    d.error(s.model.span, "an ideal line needs delay=, or length= with a speed (v= or er=)");
+    return false;
+  }
+  line.delay = *delay;
+  line.length = length;
+  line.velocity = length ? *length / *delay : 0.0;
+  if (length && line.velocity > physics::kSpeedOfLight * (1 + 1e-9)) {
+    d.error(params.span_of("delay", s.name.span),
+            fmt::format("length={} in delay={} is faster than light", params.text_of("length"),
+                        params.text_of("delay")));
+    return false;
+  }
+  return true;
+}
+
+/// The per-length figures from Z0 and speed, and R' and G', which need a length. False
+/// (reported) when r= or g= is given for a line without one.
+bool set_per_length(const ParamReader& params, const ast::LineStatement& s, Line& line,
+                    Diagnostics& d) {
+  if (line.velocity > 0) {
+    line.per_length = physics::per_length_from_z0_velocity(line.z0, line.velocity);
+    line.eps_eff = physics::effective_permittivity(line.per_length);
+  }
+  for (std::string_view key : {"r", "g"}) {
+    if (params.has(key) && !line.length) {
+      d.error(params.span_of(key, s.name.span),
+              fmt::format("{}= is per length, and this line has none; give length= too", key));
+      return false;
+    }
+  }
+  line.per_length.r = params.get("r").value_or(0.0);
+  line.per_length.g = params.get("g").value_or(0.0);
+  return true;
+}
+
 void Resolver::line(const ast::LineStatement& s) {
   Line ends;
   ends.name = s.name.text;
@@ -206,14 +329,8 @@ void Resolver::line(const ast::LineStatement& s) {
   ends.far_span = s.far.span;
   connections.lines.push_back(ends);
 
-  const ModelSpec* model = find_model(s.model.text);
-  if (!model) {
-    std::vector<std::string_view> names;
-    for (const ModelSpec& m : line_models()) names.push_back(m.name);
-    d.error(s.model.span, fmt::format("unknown model '{}'{}", s.model.text,
-                                      syntax::did_you_mean(s.model.text, names)));
-    return;
-  }
+  const ModelSpec* model = line_model(s.model, d);
+  if (!model) return;
   std::vector<const ParamSpec*> specs;
   for (const ParamSpec& p : model->params) specs.push_back(&p);
   for (const ParamSpec& p : line_options()) specs.push_back(&p);
@@ -230,92 +347,18 @@ void Resolver::line(const ast::LineStatement& s) {
 
   Line line = ends;
   line.model = model->name;
-
-  // Options.
-  if (auto n = params.get("sections")) {
-    if (*n < 1) d.error(params.span_of("sections", s.name.span), "sections must be at least 1");
-    line.sections = static_cast<int>(*n);
-  }
-  line.shape = params.shape();
-  line.tolerance = params.get("tolerance");
-  check_tolerance(line.tolerance, params.value_of("tolerance"), d);
-  params.require_positive("rise", s.name.span, "rise");
-  line.rise = params.get("rise");
-  line.charged = params.get("charged");
-  params.require_positive("length", s.name.span, "length");
-  params.require_positive("delay", s.name.span, "delay");
-  params.require_not_negative("r", s.name.span, "r");
-  params.require_not_negative("g", s.name.span, "g");
+  read_line_options(params, s, line, d);
   if (!complete) return;
-
-  ParamValues model_values;
-  for (const ParamSpec& p : model->params)
-    if (auto v = params.get(p.key)) model_values[std::string(p.key)] = *v;
-  const ModelResult result = model->evaluate(model_values);
-  bool ok = true;
-  for (const ModelProblem& problem : result.problems) {
-    const Span at = params.span_of(problem.key, s.model.span);
-    if (problem.is_error) {
-      d.error(at, problem.message);
-      ok = false;
-    } else {
-      d.warning(at, problem.message);
-    }
-  }
-  if (!ok) return;
-
-  // Length, delay and speed: any two fix the third; all three must agree.
-  line.z0 = result.z0;
-  std::optional<double> length = params.get("length");
-  std::optional<double> delay = params.get("delay");
-  if ((length && !(*length > 0)) || (delay && !(*delay > 0))) return;
-  if (result.velocity) {
-    line.velocity = *result.velocity;
-    if (length && delay) {
-      const double implied = *length / *delay;
-      if (std::abs(implied - line.velocity) > 1e-3 * line.velocity) {
-        d.error(params.span_of("delay", s.name.span),
-                fmt::format("length={} and delay={} imply {:.4g}c, but this {} line "
-                            "carries {:.4g}c; give only one of length= and delay=",
-                            params.text_of("length"), params.text_of("delay"),
-                            implied / physics::kSpeedOfLight, model->name, line.velocity / physics::kSpeedOfLight));
-        return;
-      }
-    }
-    if (!length && !delay) {
-      d.error(s.model.span, fmt::format("{} needs length= (or delay=)", model->name));
-      return;
-    }
-    line.length = length ? *length : *delay * line.velocity;
-    line.delay = delay ? *delay : *length / line.velocity;
-  } else {
-    if (!delay) {
-      d.error(s.model.span, "an ideal line needs delay=, or length= with a speed (v= or er=)");
-      return;
-    }
-    line.delay = *delay;
-    line.length = length;
-    line.velocity = length ? *length / *delay : 0.0;
-    if (length && line.velocity > physics::kSpeedOfLight * (1 + 1e-9)) {
-      d.error(params.span_of("delay", s.name.span),
-              fmt::format("length={} in delay={} is faster than light", params.text_of("length"),
-                          params.text_of("delay")));
-      return;
-    }
-  }
-  if (line.velocity > 0) {
-    line.per_length = physics::per_length_from_z0_velocity(line.z0, line.velocity);
-    line.eps_eff = physics::effective_permittivity(line.per_length);
-  }
-  for (std::string_view key : {"r", "g"}) {
-    if (params.has(key) && !line.length) {
-      d.error(params.span_of(key, s.name.span),
-              fmt::format("{}= is per length, and this line has none; give length= too", key));
-      return;
-    }
-  }
-  line.per_length.r = params.get("r").value_or(0.0);
-  line.per_length.g = params.get("g").value_or(0.0);
+  const std::optional<ModelResult> result = evaluate_model(*model, params, s, d);
+  if (!result) return;
+  line.z0 = result->z0;
+  const std::optional<double> length = params.get("length");
+  const std::optional<double> delay = params.get("delay");
+  if ((length && !(*length > 0)) || (delay && !(*delay > 0))) return;  // reported above
+  if (result->velocity) line.velocity = *result->velocity;
+  const bool extent = result->velocity ? set_extent_with_speed(*model, params, s, line, d)
+                                       : set_extent_ideal(params, s, line, d);
+  if (!extent || !set_per_length(params, s, line, d)) return;
   circuit.lines.push_back(std::move(line));
 }
 
@@ -369,11 +412,12 @@ void Resolver::drive(const ast::DriveStatement& s) {
   drive.period = params.get("period");
   if (is_pulse && !drive.width)
     d.error(s.waveform.span, "a pulse needs width= (the time it stays high)");
-  const double rise = drive.rise.value_or(circuit.settings.rise.value_or(0.0));
-  if (!drive.rise && !circuit.settings.rise)
+  const std::optional<Edge> edge = drive_edge(drive, circuit.settings);
+  if (!edge)
     d.error(s.node.span, "the drive needs rise= (its 10-90 % time), or write set rise for the "
                          "whole design; an edge with no rise time cannot be modelled");
-  if (drive.width && drive.period && *drive.period < *drive.width + 2.0 * rise / 0.8)
+  const double ramp = edge ? edge->ramp : 0.0;
+  if (drive.width && drive.period && *drive.period < *drive.width + 2.0 * ramp)
     d.error(params.span_of("period", s.node.span),
             "the period is shorter than the pulse: width plus its rising and falling ramps");
   circuit.drives.push_back(drive);
@@ -469,6 +513,7 @@ Circuit resolve(const syntax::ast::Description& description, Diagnostics& diagno
   // After a syntax error some statements are missing, and what would connect to them looks
   // unconnected: check connectivity only on a file that parsed whole.
   check_topology(r.connections, diagnostics, /*check_reach=*/!had_syntax_errors);
+  derive_edges(r.circuit);
   return std::move(r.circuit);
 }
 

@@ -8,7 +8,8 @@ namespace rungs::model {
 
 /// Turns the syntax tree into SI values and line figures, reporting every error and warning
 /// through `diagnostics` (all of them, not only the first). The circuit is complete only
-/// when no error was reported. The design name defaults to the source file's stem.
+/// when no error was reported. The design name defaults to the source file's stem. The
+/// circuit's edges are derived (derive_edges).
 Circuit resolve(const syntax::ast::Description& description, syntax::Diagnostics& diagnostics);
 
 /// Checks how lines, drives and loads connect: names unique (also once case is folded, as

@@ -4,8 +4,9 @@
 
 #include <fmt/format.h>
 
-#include "3_model/resolve.h"
 #include "1_syntax/suggest.h"
+#include "1_syntax/text.h"
+#include "3_model/resolve.h"
 
 namespace rungs::model {
 
@@ -19,12 +20,6 @@ std::string where(const Diagnostics& d, Span span) {
   return fmt::format("{}:{}", at.line, at.column);
 }
 
-std::string folded(std::string_view s) {
-  std::string out(s);
-  for (char& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return out;
-}
-
 /// Remembers the first spelling of each name and reports a second one that is the same,
 /// or the same once case is folded.
 class NameBook {
@@ -32,7 +27,7 @@ class NameBook {
   NameBook(std::string_view kind, Diagnostics& d) : kind_(kind), d_(d) {}
 
   void add(const std::string& name, Span span) {
-    auto [it, fresh] = by_folded_.emplace(folded(name), Entry{name, span});
+    auto [it, fresh] = by_folded_.emplace(syntax::fold_case(name), Entry{name, span});
     if (fresh) return;
     if (it->second.name == name) {
       d_.error(span, fmt::format("{} '{}' is already defined at {}; give each {} its own name",
@@ -54,16 +49,17 @@ class NameBook {
   std::map<std::string, Entry> by_folded_;
 };
 
-}  // namespace
+/// Where the line ends touch nodes: the first spelling of each node (by its folded name), how
+/// many line ends reach each node, and the nodes in the order lines first reach them.
+struct LineEnds {
+  std::map<std::string, std::pair<std::string, Span>> spelling;
+  std::map<std::string, int> count;
+  std::vector<std::string_view> nodes;  // into `spelling`
+};
 
-void check_topology(const Circuit& circuit, Diagnostics& d, bool check_reach) {
-  NameBook line_names("line", d);
-  for (const Line& line : circuit.lines) line_names.add(line.name, line.span);
-
-  // Nodes: the first spelling of each, where line ends touch it, and how often.
-  std::map<std::string, std::pair<std::string, Span>> node_spelling;
-  std::map<std::string, int> line_ends_at;
-  std::vector<std::string_view> line_nodes;
+/// Fills `ends` from the lines, reporting a line end on ground, a node spelt in two cases and
+/// a line whose two ends are one node.
+void read_line_ends(const Circuit& circuit, Diagnostics& d, LineEnds& ends) {
   for (const Line& line : circuit.lines) {
     for (const std::string* end : {&line.near, &line.far}) {
       const Span end_span = end == &line.near ? line.near_span : line.far_span;
@@ -73,28 +69,53 @@ void check_topology(const Circuit& circuit, Diagnostics& d, bool check_reach) {
                                        line.name));
         continue;
       }
-      const std::string key = folded(*end);
-      auto [it, fresh] = node_spelling.emplace(key, std::make_pair(*end, end_span));
+      const std::string key = syntax::fold_case(*end);
+      auto [it, fresh] = ends.spelling.emplace(key, std::make_pair(*end, end_span));
       if (!fresh && it->second.first != *end)
         d.error(end_span, fmt::format("node '{}' differs from node '{}' (at {}) only in case; "
                                       "simulators fold case, so write one spelling",
                                       *end, it->second.first, where(d, it->second.second)));
-      if (fresh) line_nodes.push_back(it->second.first);
-      ++line_ends_at[*end];
+      if (fresh) ends.nodes.push_back(it->second.first);
+      ++ends.count[*end];
     }
     if (line.near == line.far && !is_ground(line.near))
       d.error(line.span, fmt::format("line '{}' starts and ends on node '{}'; its two ends "
                                      "need two nodes",
                                      line.name, line.near));
   }
+}
+
+/// Warns of each line end that touches nothing else (no other line end, drive or load).
+void warn_open_ends(const Circuit& circuit, LineEnds& ends,
+                    const std::map<std::string, Span>& drive_at,
+                    const std::map<std::string, Span>& load_at, Diagnostics& d) {
+  for (const Line& line : circuit.lines) {
+    for (const std::string* end : {&line.near, &line.far}) {
+      if (is_ground(*end) || ends.count[*end] > 1 || drive_at.count(*end) || load_at.count(*end))
+        continue;
+      d.warning(end == &line.near ? line.near_span : line.far_span,
+                fmt::format("the {} end of line '{}' (node '{}') connects to nothing "
+                            "else; it is treated as open",
+                            end == &line.near ? "near" : "far", line.name, *end));
+    }
+  }
+}
+
+}  // namespace
+
+void check_topology(const Circuit& circuit, Diagnostics& d, bool check_reach) {
+  NameBook line_names("line", d);
+  for (const Line& line : circuit.lines) line_names.add(line.name, line.span);
+  LineEnds ends;
+  read_line_ends(circuit, d, ends);
 
   auto check_reached = [&](const std::string& node, Span span, std::string_view what) {
     if (is_ground(node)) {
       d.error(span, fmt::format("a {} cannot sit on ground; put it on a line end", what));
       return false;
     }
-    if (line_ends_at.count(node) || !check_reach) return true;
-    const std::string near = syntax::nearest(node, line_nodes);
+    if (ends.count.count(node) || !check_reach) return true;
+    const std::string near = syntax::nearest(node, ends.nodes);
     d.error(span, fmt::format("{} on node '{}', which no line reaches{}", what, node,
                               near.empty() ? "" : fmt::format("; did you mean '{}'?", near)));
     return false;
@@ -116,16 +137,7 @@ void check_topology(const Circuit& circuit, Diagnostics& d, bool check_reach) {
                                      "load with || (parallel)",
                                      load.node, where(d, it->second)));
   }
-
-  for (const Line& line : check_reach ? circuit.lines : std::vector<Line>{}) {
-    for (const std::string* end : {&line.near, &line.far}) {
-      if (is_ground(*end) || line_ends_at[*end] > 1 || drive_at.count(*end) || load_at.count(*end))
-        continue;
-      d.warning(end == &line.near ? line.near_span : line.far_span, fmt::format("the {} end of line '{}' (node '{}') connects to nothing "
-                                       "else; it is treated as open",
-                                       end == &line.near ? "near" : "far", line.name, *end));
-    }
-  }
+  if (check_reach) warn_open_ends(circuit, ends, drive_at, load_at, d);
 }
 
 }  // namespace rungs::model

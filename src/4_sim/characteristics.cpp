@@ -25,6 +25,8 @@
 #include <fmt/format.h>
 
 #include "3_model/circuit.h"
+#include "3_model/circuit_checks.h"
+#include "3_model/load_network.h"
 
 namespace rungs::sim {
 
@@ -66,40 +68,7 @@ class DenseLu {
 };
 
 /// What a load network is once zero and infinite parts are folded away.
-enum class Reduced { open, short_circuit, elements };
-
-Reduced reduce(const LoadNetwork& n) {
-  switch (n.kind) {
-    case NetworkKind::open:
-      return Reduced::open;
-    case NetworkKind::short_circuit:
-      return Reduced::short_circuit;
-    case NetworkKind::single:
-      if (!(n.value >= 0.0) || !std::isfinite(n.value))
-        throw std::invalid_argument("a load element must be zero or positive, and finite");
-      if (n.value > 0.0) return Reduced::elements;
-      return n.element == ElementKind::capacitor ? Reduced::open : Reduced::short_circuit;
-    case NetworkKind::series: {
-      bool any = false;
-      for (const LoadNetwork& part : n.parts) {
-        const Reduced r = reduce(part);
-        if (r == Reduced::open) return Reduced::open;
-        any = any || r == Reduced::elements;
-      }
-      return any ? Reduced::elements : Reduced::short_circuit;
-    }
-    case NetworkKind::parallel: {
-      bool any = false;
-      for (const LoadNetwork& part : n.parts) {
-        const Reduced r = reduce(part);
-        if (r == Reduced::short_circuit) return Reduced::short_circuit;
-        any = any || r == Reduced::elements;
-      }
-      return any ? Reduced::elements : Reduced::open;
-    }
-  }
-  throw std::logic_error("unknown load network kind");
-}
+using Form = model::LoadAdmittance::Kind;
 
 /// One R, L or C between nodes a and b (b may be ground). Its current a -> b at the coming
 /// sample is conductance * v + history: a resistor, or a trapezoidal companion (Dommel 1969).
@@ -114,7 +83,7 @@ struct Element {
   double i = 0.0;
 };
 
-/// Appends the elements of `n` (which reduces to elements) between a and b; series parts
+/// Appends the elements of `n` (whose form is finite) between a and b; series parts
 /// get inner nodes numbered from `next_node`.
 void expand(const LoadNetwork& n, int a, int b, int& next_node, std::vector<Element>& out) {
   if (n.kind == NetworkKind::single) {
@@ -123,7 +92,7 @@ void expand(const LoadNetwork& n, int a, int b, int& next_node, std::vector<Elem
   }
   std::vector<const LoadNetwork*> parts;
   for (const LoadNetwork& part : n.parts)
-    if (reduce(part) == Reduced::elements) parts.push_back(&part);
+    if (model::load_form(part) == Form::finite) parts.push_back(&part);
   if (n.kind == NetworkKind::parallel) {
     for (const LoadNetwork* part : parts) expand(*part, a, b, next_node, out);
     return;
@@ -231,6 +200,7 @@ Simulation::Simulation(const Circuit& circuit, double window, double dt)
         fmt::format("the window holds {:.3g} steps; the limit is {:.0f}", steps, kMaxSamples));
   samples_ = static_cast<std::size_t>(std::floor(steps * (1.0 + kGridSlack) + kGridSlack)) + 1;
 
+  model::check_simulable(circuit);
   for (const Line& line : circuit.lines) add_line(line);
   for (std::size_t d = 0; d < circuit.drives.size(); ++d) add_drive(d);
   for (const Load& load : circuit.loads)
@@ -252,10 +222,6 @@ void Simulation::add_line(const Line& line) {
     throw std::invalid_argument(fmt::format(
         "line '{}' has r or g: the method of characteristics here takes lossless lines only",
         line.name));
-  if (!(line.z0 > 0.0) || !std::isfinite(line.z0) || !(line.delay > 0.0) ||
-      !std::isfinite(line.delay))
-    throw std::invalid_argument(
-        fmt::format("line '{}' needs a positive, finite z0 and delay", line.name));
   double steps = line.delay / dt_;
   // The wave must arrive from samples already solved; a shorter delay would couple the ends
   // within one step, which this explicit scheme does not do.
@@ -275,41 +241,25 @@ void Simulation::add_line(const Line& line) {
 }
 
 void Simulation::add_drive(std::size_t index) {
+  // check_simulable has checked the drive: off ground, a rise time, one ideal drive a node.
   const Drive& drive = circuit_.drives[index];
   const int node = node_of(drive.node);
-  if (node == kGround) throw std::invalid_argument("a drive cannot be on ground");
-  drive_voltage(drive, circuit_.settings, 0.0);  // throws now if the drive has no rise time
-  const double rs = drive.source_resistance;
-  if (!(rs >= 0.0) || !std::isfinite(rs))
-    throw std::invalid_argument("a source resistance must be zero or positive, and finite");
-  if (rs > 0.0) {
+  if (drive.source_resistance > 0.0)
     norton_.emplace_back(node, index);
-    return;
-  }
-  for (const auto& [other, d] : ideal_)
-    if (other == node)
-      throw std::invalid_argument(fmt::format(
-          "node '{}' has two drives without source resistance; they would fight", drive.node));
-  ideal_.emplace_back(node, index);
+  else
+    ideal_.emplace_back(node, index);
 }
 
 void Simulation::add_load(const Load& load, int& next_node) {
   const int node = node_of(load.node);
-  const Reduced reduced = reduce(load.network);
-  if (node == kGround || reduced == Reduced::open) return;
+  const Form form = model::load_form(load.network);
+  if (node == kGround || form == Form::open) return;
   SwitchedLoad s;
   s.node = node;
   if (load.at && *load.at > 0.0)
     s.closes_at = static_cast<std::size_t>(std::max(0.0, std::ceil(*load.at / dt_ - kGridSlack)));
-  s.is_short = reduced == Reduced::short_circuit;
-  if (s.is_short) {
-    for (const auto& [other, d] : ideal_)
-      if (other == node)
-        throw std::invalid_argument(
-            fmt::format("node '{}' has a short and a drive without source resistance", load.node));
-  } else {
-    expand(load.network, node, kGround, next_node, s.elements);
-  }
+  s.is_short = form == Form::short_circuit;
+  if (!s.is_short) expand(load.network, node, kGround, next_node, s.elements);
   loads_.push_back(std::move(s));
 }
 
@@ -442,13 +392,7 @@ Waveforms Simulation::run() {
 }  // namespace
 
 double drive_voltage(const Drive& drive, const model::Settings& settings, double t) {
-  const std::optional<double> rise = drive.rise ? drive.rise : settings.rise;
-  if (!rise || !(*rise >= 0.0))
-    throw std::invalid_argument(fmt::format("the drive on '{}' has no rise time", drive.node));
-  if (drive.kind == WaveKind::pulse && !drive.width)
-    throw std::invalid_argument(fmt::format("the pulse on '{}' has no width", drive.node));
-  // rise is the 10-90 % time of a linear ramp, so the whole ramp takes rise/0.8.
-  const double ramp = *rise / 0.8;
+  const double ramp = model::simulated_ramp(drive, settings);
   const auto edge = [ramp](double s) {
     if (s < 0.0) return 0.0;
     return s >= ramp ? 1.0 : s / ramp;

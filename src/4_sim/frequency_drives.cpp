@@ -6,6 +6,7 @@
 
 #include <fmt/format.h>
 
+#include "3_model/circuit_checks.h"
 #include "4_sim/two_port.h"
 
 namespace rungs::sim {
@@ -34,18 +35,13 @@ ValueSlope just_before(const std::vector<Kink>& kinks, double t) {
 }  // namespace
 
 KinkedWave drive_change(const model::Drive& drive, const model::Settings& settings) {
-  const std::optional<double> rise = drive.rise ? drive.rise : settings.rise;
-  if (!rise || !(*rise >= 0.0))
-    throw std::invalid_argument(fmt::format("the drive on '{}' has no rise time", drive.node));
+  const double ramp = model::simulated_ramp(drive, settings);
   const bool pulse = drive.kind == model::WaveKind::pulse;
-  if (pulse && !drive.width)
-    throw std::invalid_argument(fmt::format("the pulse on '{}' has no width", drive.node));
   if (pulse && drive.period && !(*drive.period > 0.0))
     throw std::invalid_argument(
         fmt::format("the pulse on '{}' needs a positive period", drive.node));
   const double low = drive.kind == model::WaveKind::dc ? 0.0 : drive.low;
   const double swing = drive.high - low;
-  const double ramp = *rise / 0.8;  // the 10-90 % time of a linear ramp is 0.8 of the whole
   KinkedWave wave;
   // One edge from t0: a ramp of `ramp` seconds is a slope change up at t0 and down at its end;
   // a ramp of zero time is a step.

@@ -10,7 +10,6 @@
 #include <algorithm>
 #include <cmath>
 #include <map>
-#include <numeric>
 #include <stdexcept>
 
 #include <fmt/format.h>
@@ -19,15 +18,18 @@
 #include <Eigen/SparseLU>
 
 #include "3_model/circuit.h"
+#include "3_model/circuit_checks.h"
+#include "3_model/connected_parts.h"
+#include "4_sim/dense_solve.h"
 
 namespace rungs::sim {
 
 namespace {
 
 using model::Circuit;
-using model::ElementKind;
+using model::load_admittance;
+using model::LoadAdmittance;
 using model::LoadNetwork;
-using model::NetworkKind;
 
 constexpr int kGround = -1;
 // Components with more unknowns than this are factored as sparse matrices.
@@ -58,54 +60,9 @@ struct LoadEntry {
   std::optional<std::size_t> switch_index;
 };
 
-void check_elements(const LoadNetwork& n) {
-  if (n.kind == NetworkKind::single && (!(n.value >= 0.0) || !std::isfinite(n.value)))
-    throw std::invalid_argument("a load element must be zero or positive, and finite");
-  for (const LoadNetwork& part : n.parts) check_elements(part);
-}
-
 Admittance two_port(const LineEntry& line, Complex s) {
   return line.ladder ? ladder_admittance(line.totals, *line.ladder, s)
                      : line_admittance(line.totals, s);
-}
-
-/// Solves a x = b by Gaussian elimination with partial pivoting, overwriting b with x (and a
-/// with its factors). For the small blocks of most circuits this beats a general LU's set-up
-/// cost, which would dominate at two or three unknowns.
-void solve_in_place(Eigen::MatrixXcd& a, Eigen::MatrixXcd& b) {
-  const Eigen::Index n = a.rows();
-  const Eigen::Index m = b.cols();
-  for (Eigen::Index k = 0; k < n; ++k) {
-    Eigen::Index p = k;
-    double best = std::norm(a(k, k));
-    for (Eigen::Index r = k + 1; r < n; ++r)
-      if (std::norm(a(r, k)) > best) {
-        best = std::norm(a(r, k));
-        p = r;
-      }
-    // Every unknown has a two-port, a source resistance or a load to ground, and Re s > 0
-    // makes each of those passive and lossy, so the matrix is regular.
-    if (best == 0.0) throw std::runtime_error("the nodal matrix is singular");
-    if (p != k) {
-      a.row(k).swap(a.row(p));
-      b.row(k).swap(b.row(p));
-    }
-    const Complex inverse = reciprocal(a(k, k));
-    for (Eigen::Index r = k + 1; r < n; ++r) {
-      const Complex f = a(r, k) * inverse;
-      if (f == Complex(0.0, 0.0)) continue;
-      for (Eigen::Index c = k + 1; c < n; ++c) a(r, c) -= f * a(k, c);
-      for (Eigen::Index c = 0; c < m; ++c) b(r, c) -= f * b(k, c);
-    }
-  }
-  for (Eigen::Index r = n; r-- > 0;) {
-    const Complex inverse = reciprocal(a(r, r));
-    for (Eigen::Index c = 0; c < m; ++c) {
-      Complex sum = b(r, c);
-      for (Eigen::Index q = r + 1; q < n; ++q) sum -= a(r, q) * b(q, c);
-      b(r, c) = sum * inverse;
-    }
-  }
 }
 
 /// The unknowns of one switch position: which nodes are free, forced or empty, and the
@@ -156,6 +113,80 @@ struct Stamper {
   }
 };
 
+/// The DC equations of a settled start, in real numbers: nodes that lossless lines join are
+/// merged into one unknown (ground, kGround, is a node too), and a set held at a known voltage
+/// by a zero-resistance drive or a short moves to the right-hand side. Each unknown also has
+/// kDcLeak to ground, so that a floating set settles at 0 V.
+class DcSystem {
+ public:
+  DcSystem(std::size_t nodes, Eigen::Index sources)
+      : sets_(nodes + 1), ground_(nodes), sources_(sources) {}
+
+  /// Merges the sets of two nodes (before number_unknowns).
+  void join(int p, int q) { sets_.unite(set_of(p), set_of(q)); }
+  /// Holds a node's set at `value` per source column (before number_unknowns). Throws when a
+  /// set is held at two different values: a zero-resistance drive shorted to another.
+  void hold(int node, const Eigen::RowVectorXd& value) {
+    auto [it, fresh] = held_.emplace(set_of(node), value);
+    if (!fresh && (it->second - value).cwiseAbs().maxCoeff() > 0.0)
+      throw std::invalid_argument(
+          "a drive without source resistance is joined to another fixed voltage by a lossless "
+          "path: the DC state would short it");
+  }
+  /// Numbers the sets that are not held, in the order of their first node, and sizes the
+  /// equations.
+  void number_unknowns() {
+    for (std::size_t i = 0; i < ground_; ++i) {
+      const std::size_t set = sets_.find(i);
+      if (!held_.count(set)) unknown_of_.emplace(set, static_cast<int>(unknown_of_.size()));
+    }
+    const int u = static_cast<int>(unknown_of_.size());
+    a_ = Eigen::MatrixXd::Zero(u, u);
+    b_ = Eigen::MatrixXd::Zero(u, sources_);
+    for (int i = 0; i < u; ++i) a_(i, i) = kDcLeak;
+  }
+  /// Adds conductance y (S) to row p, column q; a held column moves to the right-hand side.
+  void add(int p, int q, double y) {
+    auto fp = unknown_of_.find(set_of(p));
+    if (fp == unknown_of_.end()) return;
+    const std::size_t sq = set_of(q);
+    auto fq = unknown_of_.find(sq);
+    if (fq != unknown_of_.end())
+      a_(fp->second, fq->second) += y;
+    else
+      b_.row(fp->second) -= y * held_.at(sq);
+  }
+  /// Adds a current (A) into node p in one source's column.
+  void inject(int p, Eigen::Index column, double current) {
+    auto fp = unknown_of_.find(set_of(p));
+    if (fp != unknown_of_.end()) b_(fp->second, column) += current;
+  }
+  /// The voltages of the unknowns per source column, by Eigen's LU with partial pivoting.
+  Eigen::MatrixXd solve() const {
+    if (a_.rows() == 0) return {};
+    return a_.partialPivLu().solve(b_);
+  }
+  /// A node's DC voltage per source column, from `solution` or its held value.
+  Eigen::RowVectorXd voltage(int node, const Eigen::MatrixXd& solution) {
+    const std::size_t set = set_of(node);
+    auto it = unknown_of_.find(set);
+    return it != unknown_of_.end() ? Eigen::RowVectorXd(solution.row(it->second)) : held_.at(set);
+  }
+
+ private:
+  std::size_t set_of(int node) {
+    return sets_.find(node == kGround ? ground_ : static_cast<std::size_t>(node));
+  }
+
+  model::DisjointSets sets_;
+  std::size_t ground_;
+  Eigen::Index sources_;
+  std::map<std::size_t, Eigen::RowVectorXd> held_;
+  std::map<std::size_t, int> unknown_of_;
+  Eigen::MatrixXd a_;
+  Eigen::MatrixXd b_;
+};
+
 }  // namespace
 
 struct FrequencyNetwork::Impl {
@@ -168,6 +199,7 @@ struct FrequencyNetwork::Impl {
   void add_load(const model::Load& load, std::size_t index);
   void order_switches(const Circuit& circuit);
   void solve_steady();
+  void stamp_dc(DcSystem& dc) const;
   Stage& stage(std::size_t closed);
   Complex drive_transform(const DriveEntry& d, Complex s) const;
   void known_voltages(Complex s, std::size_t closed, const Eigen::MatrixXcd& compensation,
@@ -207,6 +239,7 @@ FrequencyNetwork::Impl::Impl(const Circuit& circuit,
   if (start == InitialState::settled && charged)
     throw std::invalid_argument(
         "a charged line starts from rest: its charge is not a DC state of the circuit");
+  model::check_simulable(circuit);
   for (std::size_t k = 0; k < circuit.lines.size(); ++k)
     add_line(circuit.lines[k], ladders.empty() ? std::nullopt : ladders[k], k);
   for (std::size_t d = 0; d < circuit.drives.size(); ++d) add_drive(circuit, d);
@@ -229,10 +262,6 @@ int FrequencyNetwork::Impl::node_of(const std::string& name) {
 
 void FrequencyNetwork::Impl::add_line(const model::Line& line, std::optional<LadderSpec> ladder,
                                       std::size_t) {
-  if (!(line.z0 > 0.0) || !std::isfinite(line.z0) || !(line.delay > 0.0) ||
-      !std::isfinite(line.delay))
-    throw std::invalid_argument(
-        fmt::format("line '{}' needs a positive, finite z0 and delay", line.name));
   if (ladder && ladder->sections < 1)
     throw std::invalid_argument(
         fmt::format("line '{}': a ladder needs at least one section", line.name));
@@ -251,46 +280,31 @@ void FrequencyNetwork::Impl::add_line(const model::Line& line, std::optional<Lad
 
 void FrequencyNetwork::Impl::add_drive(const Circuit& circuit, std::size_t index_in_circuit) {
   const model::Drive& drive = circuit.drives[index_in_circuit];
+  // check_simulable has checked the drive: off ground, a rise time, one ideal drive a node.
   DriveEntry e;
   e.node = node_of(drive.node);
-  if (e.node == kGround) throw std::invalid_argument("a drive cannot be on ground");
   e.resistance = drive.source_resistance;
-  if (!(e.resistance >= 0.0) || !std::isfinite(e.resistance))
-    throw std::invalid_argument("a source resistance must be zero or positive, and finite");
   e.change = drive_change(drive, circuit.settings);
   const double low = drive.kind == model::WaveKind::dc ? 0.0 : drive.low;
   if (start == InitialState::rest)
     e.initial_step = low;
   else
     e.low = low;
-  if (e.resistance == 0.0)
-    for (const DriveEntry& other : drives)
-      if (other.resistance == 0.0 && other.node == e.node)
-        throw std::invalid_argument(fmt::format(
-            "node '{}' has two drives without source resistance; they would fight", drive.node));
   drives.push_back(std::move(e));
   sources.push_back({Source::Kind::drive, index_in_circuit, drive.high - low});
 }
 
 void FrequencyNetwork::Impl::add_load(const model::Load& load, std::size_t) {
-  check_elements(load.network);
   LoadEntry e;
   e.node = node_of(load.node);
   e.network = &load.network;
-  // Whether the network is open, a short or neither does not depend on s (the frequency here
-  // only probes its structure).
-  const LoadAdmittance probe = load_admittance(load.network, Complex(1.0, 1.0));
-  if (e.node == kGround || probe.kind == LoadAdmittance::Kind::open) {
+  const LoadAdmittance::Kind form = model::load_form(load.network);
+  if (e.node == kGround || form == LoadAdmittance::Kind::open) {
     e.node = kGround;  // nothing to stamp
     loads.push_back(e);
     return;
   }
-  e.is_short = probe.kind == LoadAdmittance::Kind::short_circuit;
-  if (e.is_short)
-    for (const DriveEntry& d : drives)
-      if (d.resistance == 0.0 && d.node == e.node)
-        throw std::invalid_argument(
-            fmt::format("node '{}' has a short and a drive without source resistance", load.node));
+  e.is_short = form == LoadAdmittance::Kind::short_circuit;
   loads.push_back(e);
 }
 
@@ -456,7 +470,9 @@ void FrequencyNetwork::Impl::solve(Complex s, std::size_t closed,
         throw std::runtime_error("the nodal matrix could not be factored");
       unknowns = st.sparse_lu.solve(rhs);
     } else {
-      solve_in_place(st.dense, rhs);
+      // Every unknown has a two-port, a source resistance or a load to ground, and Re s > 0
+      // makes each of those passive and lossy, so the matrix is regular.
+      solve_dense_in_place(st.dense, rhs);
       unknowns.swap(rhs);
     }
   }
@@ -477,66 +493,33 @@ void FrequencyNetwork::Impl::solve_steady() {
   if (start != InitialState::settled) return;
   if (std::none_of(drives.begin(), drives.end(), [](const DriveEntry& d) { return d.low != 0.0; }))
     return;
-  // Lossless-in-series lines are shorts at DC: merge the nodes they join (ground is n).
-  std::vector<std::size_t> parent(n + 1);
-  std::iota(parent.begin(), parent.end(), 0);
-  const auto id = [n](int node) { return node == kGround ? n : static_cast<std::size_t>(node); };
-  const auto find = [&](std::size_t i) {
-    while (parent[i] != i) i = parent[i] = parent[parent[i]];
-    return i;
-  };
+  DcSystem dc(n, m);
+  // Lossless-in-series lines are shorts at DC: merge the nodes they join.
   for (const LineEntry& l : lines)
-    if (l.totals.r == 0.0) parent[find(id(l.near))] = find(id(l.far));
-  // The value each merged set is held at, per column, when a source fixes it.
-  std::map<std::size_t, Eigen::RowVectorXd> held;
-  std::map<std::size_t, int> holders;
-  const auto hold = [&](std::size_t set, Eigen::RowVectorXd value) {
-    auto [it, fresh] = held.emplace(set, value);
-    if (!fresh && (it->second - value).cwiseAbs().maxCoeff() > 0.0)
-      throw std::invalid_argument(
-          "a drive without source resistance is joined to another fixed voltage by a lossless "
-          "path: the DC state would short it");
-    ++holders[set];
-  };
-  hold(find(n), Eigen::RowVectorXd::Zero(m));
+    if (l.totals.r == 0.0) dc.join(l.near, l.far);
+  dc.hold(kGround, Eigen::RowVectorXd::Zero(m));
   for (std::size_t d = 0; d < drives.size(); ++d) {
     if (drives[d].resistance != 0.0) continue;
     Eigen::RowVectorXd value = Eigen::RowVectorXd::Zero(m);
     value(static_cast<Eigen::Index>(d)) = drives[d].low;
-    hold(find(id(drives[d].node)), value);
+    dc.hold(drives[d].node, value);
   }
   for (const LoadEntry& l : loads) {
     if (l.node == kGround || l.switch_index) continue;
     if (load_admittance(*l.network, 0.0).kind == LoadAdmittance::Kind::short_circuit)
-      hold(find(id(l.node)), Eigen::RowVectorXd::Zero(m));
+      dc.hold(l.node, Eigen::RowVectorXd::Zero(m));
   }
-  std::map<std::size_t, int> unknown_of;
-  for (std::size_t i = 0; i < n; ++i) {
-    const std::size_t set = find(i);
-    if (!held.count(set)) unknown_of.emplace(set, static_cast<int>(unknown_of.size()));
-  }
-  const int u = static_cast<int>(unknown_of.size());
-  Eigen::MatrixXd a = Eigen::MatrixXd::Zero(u, u);
-  Eigen::MatrixXd b = Eigen::MatrixXd::Zero(u, m);
-  for (int i = 0; i < u; ++i) a(i, i) = kDcLeak;
-  const auto add = [&](int p, int q, double y) {
-    const std::size_t sp = find(id(p));
-    const std::size_t sq = find(id(q));
-    auto fp = unknown_of.find(sp);
-    if (fp == unknown_of.end()) return;
-    auto fq = unknown_of.find(sq);
-    if (fq != unknown_of.end())
-      a(fp->second, fq->second) += y;
-    else
-      b.row(fp->second) -= y * held.at(sq);
-  };
-  const auto inject = [&](int p, Eigen::Index column, double current) {
-    auto fp = unknown_of.find(find(id(p)));
-    if (fp != unknown_of.end()) b(fp->second, column) += current;
-  };
+  dc.number_unknowns();
+  stamp_dc(dc);
+  const Eigen::MatrixXd solution = dc.solve();
+  for (std::size_t i = 0; i < n; ++i)
+    steady.row(static_cast<Eigen::Index>(i)) = dc.voltage(static_cast<int>(i), solution);
+}
+
+void FrequencyNetwork::Impl::stamp_dc(DcSystem& dc) const {
   for (const LineEntry& l : lines) {
     if (l.totals.r == 0.0) {
-      add(l.near, l.near, l.totals.g);  // the line's whole leakage, at its one DC voltage
+      dc.add(l.near, l.near, l.totals.g);  // the line's whole leakage, at its one DC voltage
       continue;
     }
     Admittance y;
@@ -545,29 +528,21 @@ void FrequencyNetwork::Impl::solve_steady() {
     } else {
       y = two_port(l, 0.0);  // finite at s = 0 when R and G are both positive
     }
-    add(l.near, l.near, y.y11.real());
-    add(l.far, l.far, y.y22.real());
-    add(l.near, l.far, y.y12.real());
-    add(l.far, l.near, y.y12.real());
+    dc.add(l.near, l.near, y.y11.real());
+    dc.add(l.far, l.far, y.y22.real());
+    dc.add(l.near, l.far, y.y12.real());
+    dc.add(l.far, l.near, y.y12.real());
   }
   for (std::size_t d = 0; d < drives.size(); ++d) {
     const DriveEntry& e = drives[d];
     if (e.resistance == 0.0) continue;
-    add(e.node, e.node, 1.0 / e.resistance);
-    inject(e.node, static_cast<Eigen::Index>(d), e.low / e.resistance);
+    dc.add(e.node, e.node, 1.0 / e.resistance);
+    dc.inject(e.node, static_cast<Eigen::Index>(d), e.low / e.resistance);
   }
   for (const LoadEntry& l : loads) {
     if (l.node == kGround || l.switch_index) continue;
     const LoadAdmittance y = load_admittance(*l.network, 0.0);
-    if (y.kind == LoadAdmittance::Kind::finite) add(l.node, l.node, y.y.real());
-  }
-  Eigen::MatrixXd solution;
-  if (u > 0) solution = a.partialPivLu().solve(b);
-  for (std::size_t i = 0; i < n; ++i) {
-    const std::size_t set = find(i);
-    auto it = unknown_of.find(set);
-    steady.row(static_cast<Eigen::Index>(i)) =
-        it != unknown_of.end() ? Eigen::RowVectorXd(solution.row(it->second)) : held.at(set);
+    if (y.kind == LoadAdmittance::Kind::finite) dc.add(l.node, l.node, y.y.real());
   }
 }
 

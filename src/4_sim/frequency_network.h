@@ -11,8 +11,8 @@
 #include <Eigen/Core>
 
 #include "3_model/circuit.h"
+#include "3_model/load_network.h"
 #include "4_sim/frequency_drives.h"
-#include "4_sim/frequency_loads.h"
 #include "4_sim/frequency_parts.h"
 #include "4_sim/two_port.h"
 

@@ -9,6 +9,8 @@
 
 #include <Eigen/Core>
 
+#include "3_model/edges.h"
+
 namespace rungs::sim {
 
 namespace {
@@ -82,8 +84,8 @@ double fastest_ramp(const model::Circuit& circuit, const ReferenceOptions& optio
   for (const double closing : options.closing)
     if (closing > 0.0) fastest = std::min(fastest, closing);
   for (const model::Drive& d : circuit.drives) {
-    const std::optional<double> rise = d.rise ? d.rise : circuit.settings.rise;
-    if (rise && *rise > 0.0) fastest = std::min(fastest, *rise / 0.8);
+    const std::optional<model::Edge> edge = model::drive_edge(d, circuit.settings);
+    if (edge && edge->rise > 0.0) fastest = std::min(fastest, edge->ramp);
   }
   return fastest;
 }
@@ -153,40 +155,41 @@ LaplaceInverter& ResponseWorkspace::coarse(const LaplaceGrid& grid) {
   return *coarse_;
 }
 
-Response frequency_response(const model::Circuit& circuit,
-                            const std::vector<std::optional<LadderSpec>>& ladders,
-                            const LaplaceGrid& grid, const ReferenceOptions& options,
-                            ResponseWorkspace* workspace) {
-  if (!(options.window > 0.0) || options.window > 0.5 * grid.period * (1.0 + 1e-12))
-    throw std::invalid_argument("the window must be positive and at most half the period");
-  FrequencyNetwork network(circuit, ladders, options.initial);
-  ResponseWorkspace local;
-  ResponseWorkspace& work = workspace ? *workspace : local;
-  LaplaceInverter& inverter = work.fine(grid);
+namespace {
+
+/// v(0+) = lim s V(s) as s -> infinity (the initial-value theorem, any table of transforms) of
+/// every node (rows) per source (columns): a charged line's ends, or a low level applied at
+/// t = 0, jump there. At this s every delay's e^{-s tau} is zero, C a short and L an open to
+/// within O(1/(s tau)) of any time constant tau longer than a millionth of a sample; no switch
+/// has closed yet.
+Eigen::MatrixXd initial_values(FrequencyNetwork& network, const LaplaceGrid& grid,
+                               const Eigen::MatrixXcd& no_compensation) {
+  const double s_big = 1e6 / grid.time_step();
+  Eigen::MatrixXcd v;
+  network.solve(Complex(s_big, 0.0), 0, no_compensation, v);
+  return (s_big * v).real();
+}
+
+/// Solves the network at every frequency of the grid, one switch position after another: the
+/// open voltage at each of the first `active` switches becomes its compensation source for the
+/// positions after it closes. Fills `spectra` (per source and node, the K frequencies
+/// contiguous) with the last position's solution, and returns each active switch's open voltage
+/// when it closes, all sources together.
+std::vector<double> sweep_switch_positions(FrequencyNetwork& network, LaplaceInverter& inverter,
+                                           const ReferenceOptions& options,
+                                           const Eigen::MatrixXd& initial, std::size_t active,
+                                           std::vector<Complex>& spectra) {
+  const LaplaceGrid& grid = inverter.grid();
   const std::size_t kk = grid.frequencies;
   const std::size_t n = network.nodes().size();
   const std::size_t m = network.sources().size();
   const auto& switches = network.switches();
-  // Switches that close after the window change nothing inside it.
-  std::size_t active = 0;
-  while (active < switches.size() && switches[active].at < options.window) ++active;
-
   Eigen::MatrixXcd compensation =
       Eigen::MatrixXcd::Zero(static_cast<Eigen::Index>(active), static_cast<Eigen::Index>(m));
-  // v(0+) = lim s V(s) as s -> infinity (the initial-value theorem, any table of transforms):
-  // a charged line's ends, or a low level applied at t = 0, jump there. Taken out of every
-  // spectrum as v(0+)/s and put back as a constant, the jump does not ring in the inversion.
-  // At this s every delay's e^{-s tau} is zero, C a short and L an open to within O(1/(s tau))
-  // of any time constant tau longer than a millionth of a sample; no switch has closed yet.
-  const double s_big = 1e6 / grid.time_step();
-  Eigen::MatrixXcd v;
-  network.solve(Complex(s_big, 0.0), 0, compensation, v);
-  const Eigen::MatrixXd initial = (s_big * v).real();
   std::vector<Eigen::MatrixXcd> sources_of_switch;  // per active switch: K x m
   std::vector<double> switch_voltages;               // per active switch: u(at), all sources
   Eigen::RowVectorXd voltage_at;
-  // Final spectra, laid out per (source, node) with the K frequencies contiguous.
-  std::vector<Complex>& spectra = work.spectra();
+  Eigen::MatrixXcd v;
   spectra.assign(kk * n * m, Complex(0.0, 0.0));
   for (std::size_t stage = 0; stage <= active; ++stage) {
     const bool last = stage == active;
@@ -207,30 +210,28 @@ Response frequency_response(const model::Circuit& circuit,
             v.row(static_cast<Eigen::Index>(switches[stage].node));
       }
     }
-    if (!last) {
-      sources_of_switch.push_back(
-          compensation_source(inverter, at_switch,
-                              network.steady().row(static_cast<Eigen::Index>(switches[stage].node)),
-                              initial.row(static_cast<Eigen::Index>(switches[stage].node)),
-                              switches[stage].at, closing_of(options, switches[stage].load),
-                              voltage_at));
-      switch_voltages.push_back(voltage_at.sum());
-    }
+    if (last) break;
+    const auto node = static_cast<Eigen::Index>(switches[stage].node);
+    sources_of_switch.push_back(compensation_source(
+        inverter, at_switch, network.steady().row(node), initial.row(node), switches[stage].at,
+        closing_of(options, switches[stage].load), voltage_at));
+    switch_voltages.push_back(voltage_at.sum());
   }
+  return switch_voltages;
+}
 
-  Response r;
-  r.grid = grid;
-  r.nodes = network.nodes();
-  r.sources = network.sources();
-  r.switches = network.switches();
-  r.switch_voltages = std::move(switch_voltages);
-  r.initial = network.initial();
-  const double h = grid.time_step();
-  const std::size_t samples =
-      std::min(grid.fft_size(),
-               static_cast<std::size_t>(std::floor(options.window / h * (1.0 + 1e-12))) + 1);
-  r.t.resize(samples);
-  for (std::size_t j = 0; j < samples; ++j) r.t[j] = h * static_cast<double>(j);
+/// Brings every spectrum of `spectra` to the time domain into r.v, and its lower half into
+/// r.coarse, the jump v(0+) and the steady part put back in closed form; fills r.accuracy
+/// against options.target. r.t, r.sources and the network's figures must be set.
+void invert_spectra(const FrequencyNetwork& network, ResponseWorkspace& work,
+                    const ReferenceOptions& options, const Eigen::MatrixXd& initial,
+                    std::vector<Complex>& spectra, Response& r) {
+  LaplaceInverter& inverter = work.fine(r.grid);
+  const LaplaceGrid& grid = r.grid;
+  const std::size_t kk = grid.frequencies;
+  const std::size_t n = r.nodes.size();
+  const std::size_t m = r.sources.size();
+  const std::size_t samples = r.t.size();
   r.v.assign(m, std::vector<std::vector<double>>(n, std::vector<double>(samples)));
   // The coarse inversion uses the lower half of the frequencies on a grid of half the size:
   // its samples fall on every other fine one.
@@ -268,6 +269,45 @@ Response frequency_response(const model::Circuit& circuit,
   r.accuracy.truncation = truncation;
   r.accuracy.aliasing = 2.0 * largest * eps / (1.0 - eps);
   r.accuracy.within_target = r.accuracy.estimate() <= options.target;
+}
+
+}  // namespace
+
+Response frequency_response(const model::Circuit& circuit,
+                            const std::vector<std::optional<LadderSpec>>& ladders,
+                            const LaplaceGrid& grid, const ReferenceOptions& options,
+                            ResponseWorkspace* workspace) {
+  if (!(options.window > 0.0) || options.window > 0.5 * grid.period * (1.0 + 1e-12))
+    throw std::invalid_argument("the window must be positive and at most half the period");
+  FrequencyNetwork network(circuit, ladders, options.initial);
+  ResponseWorkspace local;
+  ResponseWorkspace& work = workspace ? *workspace : local;
+  const auto& switches = network.switches();
+  // Switches that close after the window change nothing inside it.
+  std::size_t active = 0;
+  while (active < switches.size() && switches[active].at < options.window) ++active;
+  // Taken out of every spectrum as v(0+)/s and put back as a constant, the jump at t = 0 does
+  // not ring in the inversion.
+  const Eigen::MatrixXd initial =
+      initial_values(network, grid,
+                     Eigen::MatrixXcd::Zero(static_cast<Eigen::Index>(active),
+                                            static_cast<Eigen::Index>(network.sources().size())));
+  std::vector<Complex>& spectra = work.spectra();
+  Response r;
+  r.switch_voltages =
+      sweep_switch_positions(network, work.fine(grid), options, initial, active, spectra);
+  r.grid = grid;
+  r.nodes = network.nodes();
+  r.sources = network.sources();
+  r.switches = network.switches();
+  r.initial = network.initial();
+  const double h = grid.time_step();
+  const std::size_t samples =
+      std::min(grid.fft_size(),
+               static_cast<std::size_t>(std::floor(options.window / h * (1.0 + 1e-12))) + 1);
+  r.t.resize(samples);
+  for (std::size_t j = 0; j < samples; ++j) r.t[j] = h * static_cast<double>(j);
+  invert_spectra(network, work, options, initial, spectra, r);
   return r;
 }
 

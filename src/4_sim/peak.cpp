@@ -6,9 +6,31 @@
 #include <limits>
 #include <stdexcept>
 
+#include "3_model/edges.h"
 #include "4_sim/characteristics.h"
 
 namespace rungs::sim {
+
+namespace {
+
+/// Sets peak.ratio (the largest excursion from a node's start over `swing`) and peak.node (the
+/// node of the largest |v|) from the waveforms; returns that largest |v|, V.
+double read_excursions(const Waveforms& w, double swing, PeakEstimate& peak) {
+  double largest = 0.0;
+  for (const NodeWaveform& node : w.nodes) {
+    const double start = node.v.front();
+    for (double v : node.v) {
+      peak.ratio = std::max(peak.ratio, std::abs(v - start) / swing);
+      if (std::abs(v) > largest) {
+        largest = std::abs(v);
+        peak.node = node.node;
+      }
+    }
+  }
+  return largest;
+}
+
+}  // namespace
 
 PeakEstimate estimate_peak(const model::Circuit& circuit, double window) {
   PeakEstimate peak;
@@ -39,8 +61,10 @@ PeakEstimate estimate_peak(const model::Circuit& circuit, double window) {
   if (lossless.lines.empty() || !(swing > 0.0)) return peak;
   // Steps fine enough for the fastest ramp and whole-ish sample counts on the shortest line.
   double fastest_ramp = std::numeric_limits<double>::infinity();
-  for (const model::Drive& d : circuit.drives)
-    fastest_ramp = std::min(fastest_ramp, d.rise.value_or(circuit.settings.rise.value_or(0.0)) / 0.8);
+  for (const model::Drive& d : circuit.drives) {
+    const std::optional<model::Edge> edge = model::drive_edge(d, circuit.settings);
+    fastest_ramp = std::min(fastest_ramp, edge ? edge->ramp : 0.0);
+  }
   const double dt = std::min(shortest_delay / 4.0, fastest_ramp / 20.0);
   // The reference solves a dense system each step: keep steps x nodes^2 to about a second.
   const double steps = window / dt;
@@ -53,18 +77,7 @@ PeakEstimate estimate_peak(const model::Circuit& circuit, double window) {
   } catch (const std::invalid_argument&) {
     return peak;  // a circuit the reference does not cover: no peak is claimed
   }
-  double largest_excursion = 0.0;
-  for (const NodeWaveform& node : w.nodes) {
-    const double start = node.v.front();
-    for (double v : node.v) {
-      const double excursion = std::abs(v - start);
-      peak.ratio = std::max(peak.ratio, excursion / swing);
-      if (std::abs(v) > largest_excursion) {
-        largest_excursion = std::abs(v);
-        peak.node = node.node;
-      }
-    }
-  }
+  const double largest_excursion = read_excursions(w, swing, peak);
   // The DC starting voltage of any node lies between the drives' low levels, so adding the
   // largest of them bounds the absolute peak from above.
   peak.voltage = largest_excursion + largest_low;

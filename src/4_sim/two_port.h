@@ -3,11 +3,13 @@
 #pragma once
 #include <complex>
 
+#include "2_physics/complex.h"
 #include "3_model/circuit.h"
 
 namespace rungs::sim {
 
-using Complex = std::complex<double>;
+using physics::Complex;
+using physics::reciprocal;
 
 /// A whole line's series L (H), shunt C (F), series R (ohm) and shunt G (S).
 struct LineTotals {
@@ -96,14 +98,6 @@ struct CothCsch {
   Complex csch;
 };
 CothCsch coth_csch(Complex w);
-
-/// 1/z as conj(z)/|z|^2 where |z|^2 neither overflows nor underflows (1e-150 < |z| < 1e150),
-/// else by the library's scaled division: the same value, without the scaling's cost in loops.
-inline Complex reciprocal(Complex z) {
-  const double n = std::norm(z);
-  if (n > 1e-300 && n < 1e300) return {z.real() / n, -z.imag() / n};
-  return 1.0 / z;
-}
 
 /// e^z - 1 without the cancellation of exp(z) - 1 near z = 0.
 Complex expm1(Complex z);

@@ -5,6 +5,7 @@
 #include <cmath>
 
 #include "2_physics/constants.h"
+#include "3_model/edges.h"
 
 namespace rungs::plan {
 
@@ -26,7 +27,7 @@ LadderErrorEstimate estimate_ladder_error(double delay, double rise, int section
   // series x^3/24 would understate it.
   const double theta = 2.0 * std::asin(x);
   const double delay_error = sections * (theta - w * tau) / w;
-  const double ramp = rise / 0.8;
+  const double ramp = model::ramp_time(rise);
   e.dispersion = delay_error / ramp;
 
   const double root = std::sqrt(1.0 - x * x);

@@ -10,6 +10,9 @@
 #include <fmt/format.h>
 
 #include "3_model/circuit.h"
+#include "3_model/connected_parts.h"
+#include "3_model/edges.h"
+#include "3_model/load_network.h"
 #include "5_plan/ladder_error.h"
 
 namespace rungs::plan {
@@ -18,55 +21,6 @@ namespace {
 
 using model::Circuit;
 using model::Line;
-using model::LoadNetwork;
-using model::NetworkKind;
-
-/// Connected parts of the circuit: line ends joined through lines.
-class Components {
- public:
-  explicit Components(const Circuit& circuit) {
-    for (const Line& line : circuit.lines) unite(id(line.near), id(line.far));
-  }
-  int of(const std::string& node) {
-    auto it = ids_.find(node);
-    return it == ids_.end() ? -1 : find(it->second);
-  }
-
- private:
-  int id(const std::string& node) {
-    auto [it, fresh] = ids_.emplace(node, static_cast<int>(parent_.size()));
-    if (fresh) parent_.push_back(it->second);
-    return it->second;
-  }
-  int find(int i) { return parent_[i] == i ? i : parent_[i] = find(parent_[i]); }
-  void unite(int a, int b) { parent_[find(a)] = find(b); }
-  std::map<std::string, int> ids_;
-  std::vector<int> parent_;
-};
-
-/// A load network's resistance at DC: capacitors open, inductors short.
-double dc_resistance(const LoadNetwork& n) {
-  constexpr double kOpen = std::numeric_limits<double>::infinity();
-  switch (n.kind) {
-    case NetworkKind::open: return kOpen;
-    case NetworkKind::short_circuit: return 0.0;
-    case NetworkKind::single:
-      return n.element == model::ElementKind::resistor    ? n.value
-             : n.element == model::ElementKind::capacitor ? kOpen
-                                                            : 0.0;
-    case NetworkKind::series: {
-      double sum = 0.0;
-      for (const LoadNetwork& p : n.parts) sum += dc_resistance(p);
-      return sum;
-    }
-    case NetworkKind::parallel: {
-      double conductance = 0.0;
-      for (const LoadNetwork& p : n.parts) conductance += 1.0 / dc_resistance(p);
-      return 1.0 / conductance;
-    }
-  }
-  return kOpen;
-}
 
 /// Round trips until the reflections between the worst-matched pair of ends have fallen
 /// under the tolerance: |Gamma_a Gamma_b|^n <= tolerance, with each end's Gamma taken from
@@ -75,7 +29,7 @@ int settling_round_trips(const Circuit& circuit, double tolerance) {
   std::map<std::string, double> termination;  // node -> resistance to ground at DC
   for (const model::Drive& d : circuit.drives) termination[d.node] = d.source_resistance;
   for (const model::Load& l : circuit.loads) {
-    const double r = dc_resistance(l.network);
+    const double r = model::dc_resistance(l.network);
     auto [it, fresh] = termination.emplace(l.node, r);
     if (!fresh) it->second = 1.0 / (1.0 / it->second + 1.0 / r);
   }
@@ -93,6 +47,87 @@ int settling_round_trips(const Circuit& circuit, double tolerance) {
   if (worst <= tolerance) return 2;
   if (worst >= 1.0) return 20;
   return std::clamp(static_cast<int>(std::ceil(std::log(tolerance) / std::log(worst))), 2, 20);
+}
+
+/// When the last drive has finished changing, or the last load is switched in, s.
+double last_event(const Circuit& circuit) {
+  double last = 0.0;
+  for (const model::Drive& d : circuit.drives) {
+    if (!d.edge || !(d.edge->rise > 0.0)) continue;  // reported by the resolver
+    double end = d.at + d.edge->ramp;
+    if (d.kind == model::WaveKind::pulse) end += d.width.value_or(0.0) + d.edge->ramp;
+    last = std::max(last, end);
+  }
+  for (const model::Load& l : circuit.loads) last = std::max(last, l.at.value_or(0.0));
+  return last;
+}
+
+/// A charged line makes the deck start from its initial conditions (uic), not from a DC
+/// operating point: everything else starts at rest, so a drive must start at 0 V too.
+void check_rest_start(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
+  const bool charged = std::any_of(circuit.lines.begin(), circuit.lines.end(),
+                                   [](const Line& l) { return l.charged.has_value(); });
+  for (const model::Drive& d : circuit.drives) {
+    if (charged && d.low != 0.0)
+      diagnostics.error(d.span, fmt::format("this design has a charged line, so it starts from "
+                                            "rest; drive '{}' must start at 0V, not {:g}V",
+                                            d.node, d.low));
+  }
+}
+
+/// The plan of one line for the edge that reaches it: its shape, tolerance and analytic
+/// section count (or its sections=). Without an edge, an error and a plan of rise 0.
+LinePlan plan_line(const Circuit& circuit, const Line& line, syntax::Diagnostics& diagnostics) {
+  LinePlan lp;
+  lp.shape = line.shape.value_or(circuit.settings.shape);
+  lp.tolerance = line.tolerance.value_or(circuit.settings.tolerance);
+  if (!line.edge) {
+    diagnostics.error(line.span, fmt::format("no drive reaches line '{}', so nothing says how "
+                                             "fast its edges are; give it rise= or write set "
+                                             "rise",
+                                             line.name));
+    return lp;
+  }
+  lp.rise = line.edge->rise;
+  lp.fixed = line.sections.has_value();
+  set_sections(
+      line, lp,
+      line.sections.value_or(analytic_sections(line.delay, lp.rise, lp.tolerance, lp.shape)));
+  lp.rule_sections = rule_of_thumb_sections(line.delay, lp.rise);
+  lp.rule_predicted_error =
+      estimate_ladder_error(line.delay, lp.rise, lp.rule_sections, lp.shape).total();
+  lp.bandwidth = knee_frequency(lp.rise);
+  return lp;
+}
+
+/// The observation window: `set window`, else the last event plus enough round trips of the
+/// slowest connected part (the sum of its line delays) for its reflections to settle.
+double plan_window(const Circuit& circuit) {
+  if (circuit.settings.window) return *circuit.settings.window;
+  const model::ConnectedParts parts(circuit);
+  std::vector<double> part_delay(parts.count(), 0.0);
+  for (std::size_t k = 0; k < circuit.lines.size(); ++k)
+    part_delay[parts.of_line(k)] += circuit.lines[k].delay;
+  const double slowest_part = std::accumulate(part_delay.begin(), part_delay.end(), 0.0,
+                                              [](double m, double d) { return std::max(m, d); });
+  const int trips = settling_round_trips(circuit, circuit.settings.tolerance);
+  return last_event(circuit) + (2.0 * trips + 1.0) * slowest_part;
+}
+
+/// Per load, the closing time of its switch: the ramp of the fastest line edge at its node; 0
+/// for a load that is not switched or that no line with an edge reaches.
+std::vector<double> closing_times(const Circuit& circuit) {
+  std::vector<double> closing(circuit.loads.size(), 0.0);
+  for (std::size_t i = 0; i < circuit.loads.size(); ++i) {
+    const model::Load& load = circuit.loads[i];
+    if (!load.at) continue;
+    double rise = std::numeric_limits<double>::infinity();
+    for (const Line& line : circuit.lines)
+      if ((line.near == load.node || line.far == load.node) && line.edge && line.edge->rise > 0.0)
+        rise = std::min(rise, line.edge->rise);
+    if (std::isfinite(rise)) closing[i] = model::ramp_time(rise);
+  }
+  return closing;
 }
 
 }  // namespace
@@ -134,10 +169,8 @@ Plan part_plan(const Plan& whole, const sim::CircuitPart& part) {
 
 double deck_time_step(const model::Circuit& circuit, const Plan& plan) {
   double shortest_ramp = std::numeric_limits<double>::infinity();
-  for (const model::Drive& d : circuit.drives) {
-    const double rise = d.rise.value_or(circuit.settings.rise.value_or(0.0));
-    if (rise > 0.0) shortest_ramp = std::min(shortest_ramp, rise / 0.8);
-  }
+  for (const model::Drive& d : circuit.drives)
+    if (d.edge && d.edge->rise > 0.0) shortest_ramp = std::min(shortest_ramp, d.edge->ramp);
   for (const double closing : plan.closing)
     if (closing > 0.0) shortest_ramp = std::min(shortest_ramp, closing);
   double shortest_section = std::numeric_limits<double>::infinity();
@@ -150,83 +183,14 @@ double deck_time_step(const model::Circuit& circuit, const Plan& plan) {
 }
 
 Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
+  check_rest_start(circuit, diagnostics);
   Plan plan;
-  Components parts(circuit);
-  std::map<int, double> fastest_edge;  // component -> smallest drive rise time
-  double last_event = 0.0;             // s, when the last drive has finished changing
-  for (const model::Drive& d : circuit.drives) {
-    const double rise = d.rise.value_or(circuit.settings.rise.value_or(0.0));
-    if (!(rise > 0.0)) continue;  // reported by the resolver
-    const int part = parts.of(d.node);
-    auto [it, fresh] = fastest_edge.emplace(part, rise);
-    if (!fresh) it->second = std::min(it->second, rise);
-    const double ramp = rise / 0.8;
-    double end = d.at + ramp;
-    if (d.kind == model::WaveKind::pulse) end += d.width.value_or(0.0) + ramp;
-    last_event = std::max(last_event, end);
-  }
-  for (const model::Load& l : circuit.loads) last_event = std::max(last_event, l.at.value_or(0.0));
-
-  // A charged line makes the deck start from its initial conditions (uic), not from a DC
-  // operating point: everything else starts at rest, so a drive must start at 0 V too.
-  const bool charged = std::any_of(circuit.lines.begin(), circuit.lines.end(),
-                                   [](const Line& l) { return l.charged.has_value(); });
-  for (const model::Drive& d : circuit.drives) {
-    if (charged && d.low != 0.0)
-      diagnostics.error(d.span, fmt::format("this design has a charged line, so it starts from "
-                                            "rest; drive '{}' must start at 0V, not {:g}V",
-                                            d.node, d.low));
-  }
-
-  std::map<int, double> part_delay;  // component -> sum of its line delays
   for (const Line& line : circuit.lines) {
-    part_delay[parts.of(line.near)] += line.delay;
-    LinePlan lp;
-    lp.shape = line.shape.value_or(circuit.settings.shape);
-    lp.tolerance = line.tolerance.value_or(circuit.settings.tolerance);
-    auto edge = fastest_edge.find(parts.of(line.near));
-    if (line.rise) {
-      lp.rise = *line.rise;
-    } else if (edge != fastest_edge.end()) {
-      lp.rise = edge->second;
-    } else if (circuit.settings.rise) {
-      lp.rise = *circuit.settings.rise;
-    } else {
-      diagnostics.error(line.span, fmt::format("no drive reaches line '{}', so nothing says how "
-                                               "fast its edges are; give it rise= or write set "
-                                               "rise",
-                                               line.name));
-      plan.lines.push_back(lp);
-      continue;
-    }
-    lp.fixed = line.sections.has_value();
-    set_sections(line, lp,
-                 line.sections.value_or(
-                     analytic_sections(line.delay, lp.rise, lp.tolerance, lp.shape)));
-    lp.rule_sections = rule_of_thumb_sections(line.delay, lp.rise);
-    lp.rule_predicted_error =
-        estimate_ladder_error(line.delay, lp.rise, lp.rule_sections, lp.shape).total();
-    lp.bandwidth = knee_frequency(lp.rise);
-    plan.elements += lp.elements;
-    plan.lines.push_back(lp);
+    plan.lines.push_back(plan_line(circuit, line, diagnostics));
+    plan.elements += plan.lines.back().elements;
   }
-
-  const double slowest_part =
-      std::accumulate(part_delay.begin(), part_delay.end(), 0.0,
-                      [](double m, const auto& p) { return std::max(m, p.second); });
-  const int trips = settling_round_trips(circuit, circuit.settings.tolerance);
-  plan.window = circuit.settings.window.value_or(last_event + (2.0 * trips + 1.0) * slowest_part);
-  plan.closing.assign(circuit.loads.size(), 0.0);
-  for (std::size_t i = 0; i < circuit.loads.size(); ++i) {
-    const model::Load& load = circuit.loads[i];
-    if (!load.at) continue;
-    double rise = std::numeric_limits<double>::infinity();
-    for (std::size_t k = 0; k < circuit.lines.size(); ++k)
-      if ((circuit.lines[k].near == load.node || circuit.lines[k].far == load.node) &&
-          plan.lines[k].rise > 0.0)
-        rise = std::min(rise, plan.lines[k].rise);
-    if (std::isfinite(rise)) plan.closing[i] = rise / 0.8;
-  }
+  plan.window = plan_window(circuit);
+  plan.closing = closing_times(circuit);
   plan.time_step = deck_time_step(circuit, plan);
   return plan;
 }

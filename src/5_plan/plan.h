@@ -56,7 +56,7 @@ long long ladder_elements(int sections, model::Shape shape, bool has_r, bool has
 void set_sections(const model::Line& line, LinePlan& plan, int sections);
 
 /// The simulator's maximum step for a plan's counts: it resolves the fastest ramp (a drive's
-/// rise/0.8 or a switch's closing) over 40 steps and one section's delay over 8 (factors
+/// stored edge or a switch's closing) over 40 steps and one section's delay over 8 (factors
 /// measured with ngspice in tests/emit_ngspice_test.cpp); a window's thousandth when neither
 /// bounds it.
 double deck_time_step(const model::Circuit& circuit, const Plan& plan);
@@ -64,8 +64,9 @@ double deck_time_step(const model::Circuit& circuit, const Plan& plan);
 /// The plan of one part, cut from the whole circuit's plan.
 Plan part_plan(const Plan& whole, const sim::CircuitPart& part);
 
-/// Plans every line: the rise time that reaches it (its own rise=, else the fastest drive
-/// in its connected part of the circuit, else `set rise`; a line with none is an error),
+/// Plans every line: the rise time that reaches it (the edge model::derive_edges stored: its
+/// own rise=, else the fastest drive in its connected part, else `set rise`; a line with none
+/// is an error),
 /// its tolerance and shape (own option, else the design's), and the section count from
 /// analytic_sections unless sections= fixes it. Also the observation window (`set window`,
 /// else enough round trips for the reflections to settle) and the time step.

@@ -37,8 +37,9 @@ std::string pwl(std::vector<std::pair<double, double>> corners) {
   return out + ")";
 }
 
-std::string wave_of(const model::Drive& d, double rise) {
-  const double ramp = rise / 0.8;
+/// The drive's open-circuit wave, its ramps the drive's edge (none: a jump).
+std::string wave_of(const model::Drive& d) {
+  const double ramp = d.edge ? d.edge->ramp : 0.0;
   switch (d.kind) {
     case model::WaveKind::step:
       return pwl({{d.at, d.low}, {d.at + ramp, d.high}});
@@ -108,7 +109,6 @@ class TopLevel {
 
  private:
   void drive(const model::Drive& d) {
-    const double rise = d.rise.value_or(circuit_.settings.rise.value_or(0.0));
     const std::string base = sanitize_name(d.node) + suffix_;
     std::string at = node(d.node);
     if (d.source_resistance > 0.0) {
@@ -117,7 +117,7 @@ class TopLevel {
                           spice_number(d.source_resistance));
       at = inner;
     }
-    out_ << fmt::format("{} {} 0 {}\n", names_.claim("V_" + base), at, wave_of(d, rise));
+    out_ << fmt::format("{} {} 0 {}\n", names_.claim("V_" + base), at, wave_of(d));
   }
 
   void load(const model::Load& l, std::size_t index) {

@@ -5,17 +5,13 @@
 
 #include <fmt/format.h>
 
+#include "1_syntax/text.h"
+
 namespace rungs::emit {
 
-namespace {
-std::string fold(std::string_view name) {
-  std::string out(name);
-  for (char& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return out;
+bool NameTable::reserve(std::string_view name) {
+  return folded_.insert(syntax::fold_case(name)).second;
 }
-}  // namespace
-
-bool NameTable::reserve(std::string_view name) { return folded_.insert(fold(name)).second; }
 
 std::string NameTable::claim(std::string_view wanted) {
   std::string name(wanted);

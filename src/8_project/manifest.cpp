@@ -10,9 +10,10 @@
 #include <fmt/format.h>
 #include <toml++/toml.h>
 
-#include "3_model/resolve.h"
 #include "1_syntax/parser.h"
 #include "1_syntax/suggest.h"
+#include "1_syntax/text.h"
+#include "3_model/resolve.h"
 
 namespace rungs::build {
 
@@ -35,10 +36,6 @@ std::string_view setting_example(std::string_view key) {
   return "40ns";
 }
 
-bool is_continuation_byte(char c) {
-  return (static_cast<unsigned char>(c) & 0xC0) == 0x80;
-}
-
 /// The byte offset of a toml++ position: 1-based line, and column in code points, which is
 /// how toml++ counts (and how SourceFile::locate counts back).
 std::size_t offset_of(std::string_view text, const toml::source_position& at) {
@@ -51,7 +48,7 @@ std::size_t offset_of(std::string_view text, const toml::source_position& at) {
   for (toml::source_index column = 1; column < at.column; ++column) {
     if (offset >= text.size() || text[offset] == '\n') break;
     ++offset;
-    while (offset < text.size() && is_continuation_byte(text[offset])) ++offset;
+    while (offset < text.size() && syntax::is_utf8_continuation(text[offset])) ++offset;
   }
   return offset;
 }
@@ -79,7 +76,7 @@ std::string toml_message(std::string_view description, bool at_line_end) {
     if (quote != std::string::npos)
       return fmt::format("not valid TOML: {} is given twice; keep one", what.substr(quote));
   }
-  if (!what.empty()) what[0] = static_cast<char>(std::tolower(static_cast<unsigned char>(what[0])));
+  if (!what.empty()) what[0] = syntax::fold_case(what[0]);
   return context.empty() ? fmt::format("not valid TOML: {}", what)
                          : fmt::format("not valid TOML: {} (in a {})", what, context);
 }

@@ -1,16 +1,13 @@
 // Load admittances: R, C and L combined in series and in parallel, opens and shorts kept apart.
-#include "4_sim/frequency_loads.h"
+#include "3_model/load_network.h"
 
 #include <cmath>
+#include <limits>
 #include <stdexcept>
 
-#include "4_sim/two_port.h"
+namespace rungs::model {
 
-namespace rungs::sim {
-
-using model::ElementKind;
-using model::LoadNetwork;
-using model::NetworkKind;
+using physics::reciprocal;
 
 LoadAdmittance load_admittance(const LoadNetwork& n, Complex s) {
   using Kind = LoadAdmittance::Kind;
@@ -67,4 +64,23 @@ LoadAdmittance load_admittance(const LoadNetwork& n, Complex s) {
   throw std::logic_error("unknown load network kind");
 }
 
-}  // namespace rungs::sim
+LoadAdmittance::Kind load_form(const LoadNetwork& network) {
+  // Any s with a positive real part gives the same form; 1 + i keeps every element's value
+  // within range.
+  return load_admittance(network, Complex(1.0, 1.0)).kind;
+}
+
+double dc_resistance(const LoadNetwork& network) {
+  const LoadAdmittance y = load_admittance(network, 0.0);
+  switch (y.kind) {
+    case LoadAdmittance::Kind::open:
+      return std::numeric_limits<double>::infinity();
+    case LoadAdmittance::Kind::short_circuit:
+      return 0.0;
+    case LoadAdmittance::Kind::finite:
+      return 1.0 / y.y.real();
+  }
+  return std::numeric_limits<double>::infinity();
+}
+
+}  // namespace rungs::model
