@@ -24,6 +24,7 @@
 
 #include <fmt/format.h>
 
+#include "1_syntax/invariant.h"
 #include "3_model/circuit.h"
 
 namespace rungs::sim {
@@ -53,8 +54,7 @@ class DenseLu {
     lu_.compute(Eigen::Map<const Eigen::Matrix<double, Eigen::Dynamic, Eigen::Dynamic,
                                                Eigen::RowMajor>>(a.data(), rows, rows));
     // Every row holds a conductance to ground or a forced voltage, so a zero pivot is a bug.
-    if ((lu_.matrixLU().diagonal().array() == 0.0).any())
-      throw std::logic_error("the nodal matrix is singular");
+    RUNGS_ASSERT(!(lu_.matrixLU().diagonal().array() == 0.0).any());
   }
   void solve(std::vector<double>& b) const {
     Eigen::Map<Eigen::VectorXd> x(b.data(), static_cast<Eigen::Index>(b.size()));
@@ -98,7 +98,7 @@ Reduced reduce(const LoadNetwork& n) {
       return any ? Reduced::elements : Reduced::open;
     }
   }
-  throw std::logic_error("unknown load network kind");
+  RUNGS_UNREACHABLE("unknown load network kind");
 }
 
 /// One R, L or C between nodes a and b (b may be ground). Its current a -> b at the coming

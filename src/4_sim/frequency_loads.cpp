@@ -4,6 +4,7 @@
 #include <cmath>
 #include <stdexcept>
 
+#include "1_syntax/invariant.h"
 #include "4_sim/two_port.h"
 
 namespace rungs::sim {
@@ -64,7 +65,7 @@ LoadAdmittance load_admittance(const LoadNetwork& n, Complex s) {
       return {Kind::finite, y};
     }
   }
-  throw std::logic_error("unknown load network kind");
+  RUNGS_UNREACHABLE("unknown load network kind");
 }
 
 }  // namespace rungs::sim
