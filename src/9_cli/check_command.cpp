@@ -54,10 +54,7 @@ std::string check_json(const PreparedNetlist& netlist, const std::vector<std::st
 /// exact reference cannot measure the ladders.
 PreparedNetlist checked_netlist(const std::string& path, const NetlistJob& job) {
   plan::ThreadPool pool(plan::ThreadPool::core_count());
-  PreparedNetlist netlist = [&] {
-    const ProgressNote note(preparing_label(job));
-    return take_netlist(prepare_netlist(job, pool));
-  }();
+  PreparedNetlist netlist = prepare_for_command(job, pool);
   if (netlist.verification) return netlist;
   try {
     const ProgressNote note(fmt::format("checking the ladders of {}", netlist.circuit.name));

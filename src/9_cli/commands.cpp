@@ -45,10 +45,7 @@ int plan_command(const std::string& path, const PlanOptions& options) {
   job.source = path;
   job.analytic = options.analytic;
   plan::ThreadPool pool(plan::ThreadPool::core_count());
-  const PreparedNetlist planned = [&] {
-    const ProgressNote note(preparing_label(job));
-    return take_netlist(prepare_netlist(job, pool));
-  }();
+  const PreparedNetlist planned = prepare_for_command(job, pool);
   const sim::PeakEstimate peak = sim::estimate_peak(planned.circuit, planned.plan.window);
   const plan::Verification* verification = verification_of(planned);
   if (!options.plots.empty()) {

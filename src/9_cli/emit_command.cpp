@@ -8,7 +8,6 @@
 #include "9_cli/errors.h"
 #include "9_cli/netlist_job.h"
 #include "9_cli/output_file.h"
-#include "9_cli/progress.h"
 #include "9_cli/subcommands.h"
 
 namespace rungs::cli {
@@ -52,10 +51,7 @@ int emit_command(const std::string& path, const EmitOptions& options) {
         "input or output");
   const NetlistJob job = emit_job(path, options);
   plan::ThreadPool pool(plan::ThreadPool::core_count());
-  const PreparedNetlist netlist = [&] {
-    const ProgressNote note(preparing_label(job));
-    return take_netlist(prepare_netlist(job, pool));
-  }();
+  const PreparedNetlist netlist = prepare_for_command(job, pool);
   for (const JobOutput& output : job_outputs(job, netlist))
     write_atomically(output.path, output.write, output.is_netlist, options.force);
   if (!options.depfile.empty()) write_emit_depfile(options.depfile, job, netlist);

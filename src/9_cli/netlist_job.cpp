@@ -19,6 +19,7 @@
 #include "7_report/plots.h"
 #include "9_cli/errors.h"
 #include "9_cli/output_file.h"
+#include "9_cli/progress.h"
 
 namespace rungs::cli {
 
@@ -63,12 +64,13 @@ std::string absolute_path(const std::string& path) {
   return (ec ? fs::path(path) : absolute).lexically_normal().string();
 }
 
-/// The job's description read, its defaults applied, resolved and planned by the analytic
-/// estimate; the diagnostics are added to `messages`. Throws FileError, or FileHasErrors when
-/// the description has errors.
-PreparedNetlist read_and_plan(const NetlistJob& job, std::string& messages) {
+/// The job's description with its defaults applied, resolved and planned by the analytic
+/// estimate; the diagnostics are added to `messages`. Throws FileHasErrors when the
+/// description has errors.
+PreparedNetlist resolve_and_plan(const NetlistJob& job, syntax::SourceFile file,
+                                 std::string& messages) {
   PreparedNetlist netlist;
-  netlist.file = read_source(job.source);
+  netlist.file = std::move(file);
   syntax::Diagnostics diagnostics(netlist.file);
   auto description = syntax::parse_description(diagnostics);
   build::apply_defaults(description, job.defaults);
@@ -111,8 +113,9 @@ void fill_closing_voltages(PreparedNetlist& netlist, std::string& messages) {
 }
 
 /// prepare_netlist, throwing the error that stops it.
-PreparedNetlist prepare(const NetlistJob& job, plan::ThreadPool& pool, std::string& messages) {
-  PreparedNetlist netlist = read_and_plan(job, messages);
+PreparedNetlist prepare(const NetlistJob& job, syntax::SourceFile file, plan::ThreadPool& pool,
+                        std::string& messages) {
+  PreparedNetlist netlist = resolve_and_plan(job, std::move(file), messages);
   // A bad template is found before anything is written.
   netlist.templates = load_templates(job.templates, netlist.template_files);
   if (std::string problem = emit::check_templates(netlist.templates); !problem.empty())
@@ -142,21 +145,34 @@ const plan::Verification* verification_of(const PreparedNetlist& netlist) {
   return netlist.verification ? &*netlist.verification : nullptr;
 }
 
-Preparation prepare_netlist(const NetlistJob& job, plan::ThreadPool& pool) {
+Preparation prepare_netlist(const NetlistJob& job, syntax::SourceFile file,
+                            plan::ThreadPool& pool) {
   Preparation result;
   try {
-    result.netlist = prepare(job, pool, result.messages);
+    result.netlist = prepare(job, std::move(file), pool, result.messages);
   } catch (const Error& e) {
     result.error = e;
   }
   return result;
 }
 
-std::string preparing_label(const NetlistJob& job) {
-  return job.analytic ? "" : fmt::format("verifying the ladders of {}", job.source);
+Preparation prepare_netlist(const NetlistJob& job, plan::ThreadPool& pool) {
+  try {
+    return prepare_netlist(job, read_source(job.source), pool);
+  } catch (const Error& e) {
+    Preparation result;
+    result.error = e;
+    return result;
+  }
 }
 
-PreparedNetlist take_netlist(Preparation&& prepared) {
+PreparedNetlist prepare_for_command(const NetlistJob& job, plan::ThreadPool& pool) {
+  syntax::SourceFile file = read_source(job.source);
+  Preparation prepared = [&] {
+    const ProgressNote note(job.analytic ? ""
+                                         : fmt::format("verifying the ladders of {}", file.name));
+    return prepare_netlist(job, std::move(file), pool);
+  }();
   std::cerr << prepared.messages;
   if (prepared.error) throw *prepared.error;
   return std::move(*prepared.netlist);

@@ -58,14 +58,14 @@ struct Preparation {
 /// voltages, and checks the templates. Writes nothing and prints nothing, not even progress:
 /// every message is in the result. Safe to call from several threads at once.
 Preparation prepare_netlist(const NetlistJob& job, plan::ThreadPool& pool);
+/// As above, with the description's text already read (`file`).
+Preparation prepare_netlist(const NetlistJob& job, syntax::SourceFile file, plan::ThreadPool& pool);
 
-/// What a progress line says while prepare_netlist runs `job`; empty when it is quick (no
-/// ladder is measured).
-std::string preparing_label(const NetlistJob& job);
-
-/// Prints the messages of `prepared` on standard error, then returns its netlist or throws
+/// prepare_netlist for a command's top level, on its main thread: reads the description, then
+/// shows a progress line on the terminal while the ladders are verified (not while standard
+/// input is read), prints the messages on standard error, and returns the netlist or throws
 /// its error.
-PreparedNetlist take_netlist(Preparation&& prepared);
+PreparedNetlist prepare_for_command(const NetlistJob& job, plan::ThreadPool& pool);
 
 /// The verification of a prepared netlist, or null when it was planned analytically.
 const plan::Verification* verification_of(const PreparedNetlist& netlist);
