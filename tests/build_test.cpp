@@ -302,6 +302,39 @@ TEST_CASE("a parallel build writes the same bytes as a serial one") {
   }
 }
 
+TEST_CASE("rungs build -j 2 writes the same bytes as -j 1, the planner's threads inside") {
+  // Several netlists of two parts each, one part a cascade: the planner's loops over parts
+  // and over lines run inside the build's loop over descriptions, on the same threads.
+  Folder serial, parallel;
+  std::string manifest;
+  for (int k = 0; k < 4; ++k) {
+    const std::string name = "net" + std::to_string(k);
+    const std::string text =
+        "line f a -> m ideal z0=50ohm delay=" + std::to_string(k + 1) +
+        "ns\nline s m -> b ideal z0=75ohm delay=1ns\n"
+        "drive a step 0V to 1V rise=1ns source=50ohm\nload b 75ohm\n"
+        "line u c -> d ideal z0=60ohm delay=2ns\n"
+        "drive c step 0V to 1V rise=1ns source=60ohm\nload d open\n";
+    for (const Folder* folder : {&serial, &parallel}) folder->write(name + ".rungs", text);
+    manifest += "[[netlist]]\nsource = \"" + name + ".rungs\"\noutput = \"sim/" + name +
+                ".cir\"\nreport_json = \"sim/" + name + ".json\"\n";
+  }
+  for (const Folder* folder : {&serial, &parallel}) folder->write("rungs.toml", manifest);
+  const auto one = run_in(serial.path, "build -j 1");
+  const auto two = run_in(parallel.path, "build -j 2");
+  REQUIRE(one.exit_code == 0);
+  REQUIRE(two.exit_code == 0);
+  CHECK(one.err == two.err);
+  CHECK(one.err.find("rungs: 8 outputs: 8 written, 0 unchanged\n") != std::string::npos);
+  for (int k = 0; k < 4; ++k)
+    for (const char* extension : {".cir", ".json"}) {
+      const std::string name = "sim/net" + std::to_string(k) + extension;
+      INFO(name);
+      CHECK(read(serial / name).size() > 100);
+      CHECK(read(serial / name) == read(parallel / name));
+    }
+}
+
 TEST_CASE("rungs build exit codes and messages") {
   Folder folder;
   SECTION("no manifest here or above") {

@@ -172,3 +172,13 @@ TEST_CASE("plan with a plot folder writes a waveform chart for each load and an 
   CHECK(text.find("budget 2 %") != std::string::npos);
   std::system(("rm -rf " + dir).c_str());
 }
+
+TEST_CASE("exit codes: 3 for a chart folder that cannot be made, with nothing on stdout") {
+  const std::string file = "/tmp/rungs_plot_file_" + std::to_string(::getpid());
+  std::ofstream(file) << "not a folder\n";
+  auto r = run_rungs("plan --analytic --plot " + file + " -", kAirCoax);
+  CHECK(r.exit_code == 3);
+  CHECK(r.out.empty());
+  CHECK(r.err.rfind("rungs: cannot make the folder '" + file + "': ", 0) == 0);
+  std::remove(file.c_str());
+}

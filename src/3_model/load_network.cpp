@@ -5,6 +5,8 @@
 #include <limits>
 #include <stdexcept>
 
+#include "1_syntax/invariant.h"
+
 namespace rungs::model {
 
 using physics::reciprocal;
@@ -61,7 +63,7 @@ LoadAdmittance load_admittance(const LoadNetwork& n, Complex s) {
       return {Kind::finite, y};
     }
   }
-  throw std::logic_error("unknown load network kind");
+  RUNGS_UNREACHABLE("unknown load network kind");
 }
 
 LoadAdmittance::Kind load_form(const LoadNetwork& network) {

@@ -2,16 +2,14 @@
 #include "5_plan/verify.h"
 
 #include <algorithm>
-#include <atomic>
 #include <cmath>
-#include <exception>
 #include <limits>
 #include <map>
+#include <memory>
 #include <mutex>
 #include <numeric>
-#include <stdexcept>
-#include <thread>
 
+#include "1_syntax/invariant.h"
 #include "3_model/circuit.h"
 #include "5_plan/ladder_error.h"
 #include "4_sim/error_measure.h"
@@ -42,36 +40,28 @@ std::vector<LadderSpec> ladder_specs(const Plan& plan, bool rule) {
 
 namespace {
 
-/// Calls f(item, workspace) for every item on up to `threads` threads (the caller one of them),
-/// each thread with a workspace of its own; the first exception a task throws is thrown again
-/// once all have stopped. Tasks must touch only what belongs to their item.
+/// Calls f(item, workspace) for every item on the pool. Each call has a workspace that no other
+/// running call has, kept for a later item because building one costs about a sweep; throws as
+/// ThreadPool::for_each does.
 template <class F>
-void for_each_item(const std::vector<std::size_t>& items, unsigned threads, F&& f) {
-  const unsigned count =
-      static_cast<unsigned>(std::clamp<std::size_t>(items.size(), 1, std::max(1u, threads)));
-  std::atomic<std::size_t> next{0};
-  std::exception_ptr failure;
-  std::mutex failure_lock;
-  const auto work = [&] {
-    sim::ResponseWorkspace ws;
-    for (std::size_t i = next++; i < items.size(); i = next++) {
-      try {
-        f(items[i], ws);
-      } catch (...) {
-        const std::lock_guard<std::mutex> hold(failure_lock);
-        if (!failure) failure = std::current_exception();
-        next = items.size();
+void for_each_item(ThreadPool& pool, const std::vector<std::size_t>& items, F&& f) {
+  std::mutex spare_lock;
+  std::vector<std::unique_ptr<sim::ResponseWorkspace>> spare;
+  pool.for_each(items.size(), [&](std::size_t i) {
+    std::unique_ptr<sim::ResponseWorkspace> ws;
+    {
+      const std::lock_guard<std::mutex> hold(spare_lock);
+      if (!spare.empty()) {
+        ws = std::move(spare.back());
+        spare.pop_back();
       }
     }
-  };
-  std::vector<std::thread> pool;
-  for (unsigned t = 1; t < count; ++t) pool.emplace_back(work);
-  work();
-  for (std::thread& t : pool) t.join();
-  if (failure) std::rethrow_exception(failure);
+    if (!ws) ws = std::make_unique<sim::ResponseWorkspace>();
+    f(items[i], *ws);
+    const std::lock_guard<std::mutex> hold(spare_lock);
+    spare.push_back(std::move(ws));
+  });
 }
-
-unsigned worker_count() { return std::max(1u, std::thread::hardware_concurrency()); }
 
 bool meets(double error, double accuracy, double tolerance) {
   return error + accuracy <= tolerance;
@@ -248,7 +238,7 @@ Verification verify_part(const model::Circuit& circuit, const Plan& plan) {
 }
 
 std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
-                                                 const Plan& analytic, unsigned threads) {
+                                                 const Plan& analytic, ThreadPool& pool) {
   Plan plan = analytic;
   const sim::ReferenceOptions o = reference_options(plan);
   sim::ResponseWorkspace ws;
@@ -261,7 +251,7 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
   std::vector<Measurements> seen(n);
   std::vector<double> share(n, 1.0);  // of each line's tolerance, its budget alone
   // Each line alone: the searches share nothing but the reference, so they run side by side.
-  for_each_item(adjustable, threads, [&](std::size_t k, sim::ResponseWorkspace& own) {
+  for_each_item(pool, adjustable, [&](std::size_t k, sim::ResponseWorkspace& own) {
     LinePlan& lp = plan.lines[k];
     set_sections(circuit.lines[k], lp,
                  search_line(circuit, exact, o, own, k, lp, lp.tolerance, seen[k], true));
@@ -308,7 +298,7 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
       if (tighten[j]) again.push_back(j);
     std::vector<int> before(n);
     for (std::size_t j = 0; j < n; ++j) before[j] = plan.lines[j].sections;
-    for_each_item(again, threads, [&](std::size_t j, sim::ResponseWorkspace& own) {
+    for_each_item(pool, again, [&](std::size_t j, sim::ResponseWorkspace& own) {
       share[j] *= factor;
       LinePlan& lp = plan.lines[j];
       set_sections(circuit.lines[j], lp,
@@ -339,9 +329,9 @@ void merge_part(const sim::CircuitPart& part, const Verification& from, Verifica
   into.reference_within_target = into.reference_within_target && from.reference_within_target;
 }
 
+/// A plan is made from its circuit; one of another circuit is a caller's mistake.
 void check_plan_of(const model::Circuit& circuit, const Plan& plan) {
-  if (plan.lines.size() != circuit.lines.size())
-    throw std::invalid_argument("the plan is not of this circuit");
+  RUNGS_ASSERT(plan.lines.size() == circuit.lines.size());
 }
 
 }  // namespace
@@ -358,7 +348,7 @@ void set_closing_voltages(const model::Circuit& circuit, Plan& plan) {
   }
 }
 
-Verification verify_plan(const model::Circuit& circuit, const Plan& plan) {
+Verification verify_plan(const model::Circuit& circuit, const Plan& plan, ThreadPool& pool) {
   check_plan_of(circuit, plan);
   Verification v;
   v.lines.resize(circuit.lines.size());
@@ -367,30 +357,29 @@ Verification verify_plan(const model::Circuit& circuit, const Plan& plan) {
   std::vector<Verification> verdicts(parts.size());
   std::vector<std::size_t> items(parts.size());
   std::iota(items.begin(), items.end(), std::size_t{0});
-  for_each_item(items, worker_count(), [&](std::size_t i, sim::ResponseWorkspace&) {
+  for_each_item(pool, items, [&](std::size_t i, sim::ResponseWorkspace&) {
     verdicts[i] = verify_part(parts[i].circuit, part_plan(plan, parts[i]));
   });
   for (std::size_t i = 0; i < parts.size(); ++i) merge_part(parts[i], verdicts[i], v);
   return v;
 }
 
-std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit,
-                                            const Plan& analytic) {
+std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const Plan& analytic,
+                                            ThreadPool& pool) {
   check_plan_of(circuit, analytic);
   Plan plan = analytic;
   plan.closing_voltage.assign(circuit.loads.size(), 0.0);
   Verification v;
   v.lines.resize(circuit.lines.size());
   v.reference_within_target = true;
-  // Parts side by side when there are several, else the lines of the one part.
+  // Parts side by side, and the lines of each part side by side within it: the loops nest
+  // on the one pool, which keeps the threads at work within its size.
   const std::vector<sim::CircuitPart> parts = sim::connected_parts(circuit);
-  const unsigned threads = worker_count();
   std::vector<std::pair<Plan, Verification>> done(parts.size());
   std::vector<std::size_t> items(parts.size());
   std::iota(items.begin(), items.end(), std::size_t{0});
-  for_each_item(items, parts.size() > 1 ? threads : 1, [&](std::size_t i, sim::ResponseWorkspace&) {
-    done[i] = plan_verified_part(parts[i].circuit, part_plan(analytic, parts[i]),
-                                 parts.size() > 1 ? 1 : threads);
+  for_each_item(pool, items, [&](std::size_t i, sim::ResponseWorkspace&) {
+    done[i] = plan_verified_part(parts[i].circuit, part_plan(analytic, parts[i]), pool);
   });
   for (std::size_t i = 0; i < parts.size(); ++i) {
     merge_part(parts[i], done[i].first, plan);
@@ -400,6 +389,16 @@ std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit,
   for (const LinePlan& lp : plan.lines) plan.elements += lp.elements;
   plan.time_step = deck_time_step(circuit, plan);
   return {plan, v};
+}
+
+Verification verify_plan(const model::Circuit& circuit, const Plan& plan) {
+  ThreadPool pool(ThreadPool::core_count());
+  return verify_plan(circuit, plan, pool);
+}
+
+std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const Plan& analytic) {
+  ThreadPool pool(ThreadPool::core_count());
+  return plan_verified(circuit, analytic, pool);
 }
 
 }  // namespace rungs::plan

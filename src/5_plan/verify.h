@@ -7,6 +7,7 @@
 
 #include "3_model/circuit.h"
 #include "5_plan/plan.h"
+#include "5_plan/thread_pool.h"
 #include "4_sim/frequency_reference.h"
 #include "4_sim/two_port.h"
 
@@ -41,6 +42,9 @@ struct Verification {
 /// Measures the plan's ladders against the exact reference (target: the smallest line
 /// tolerance over 20; window plan.window) and, for the common rule's counts, their error too.
 /// Throws what sim::exact_reference throws (e.g. std::invalid_argument for a zero window).
+/// The parts are measured side by side on `pool`.
+Verification verify_plan(const model::Circuit& circuit, const Plan& plan, ThreadPool& pool);
+/// As above, on a pool of its own with a thread for each core.
 Verification verify_plan(const model::Circuit& circuit, const Plan& plan);
 
 /// The smallest N per line (in the shape planned) whose whole-circuit error, plus the
@@ -61,7 +65,11 @@ Verification verify_plan(const model::Circuit& circuit, const Plan& plan);
 ///    marked owed_to_fixed and raises nothing.
 /// Lines with sections= (LinePlan::fixed) are verified, not changed. Returns the plan with the
 /// new counts (section values, cutoff, elements, predicted errors and time step recomputed)
-/// and its verification.
+/// and its verification. The parts, and the lines of each part, are searched side by side on
+/// `pool`; the counts do not depend on its size.
+std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const Plan& analytic,
+                                            ThreadPool& pool);
+/// As above, on a pool of its own with a thread for each core.
 std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit,
                                             const Plan& analytic);
 

@@ -5,15 +5,16 @@
 
 #include <fmt/format.h>
 
+#include "5_plan/thread_pool.h"
+#include "7_report/plan_report.h"
 #include "8_project/depfile.h"
 #include "8_project/manifest.h"
 #include "8_project/staleness.h"
-#include "9_cli/commands.h"
+#include "9_cli/errors.h"
 #include "9_cli/netlist_job.h"
 #include "9_cli/output_file.h"
-#include "9_cli/parallel.h"
+#include "9_cli/progress.h"
 #include "9_cli/subcommands.h"
-#include "7_report/plan_report.h"
 
 namespace rungs::cli {
 
@@ -44,75 +45,75 @@ std::string from_manifest(const fs::path& folder, const std::string& path) {
   return (folder / written).lexically_normal().string();
 }
 
-/// The manifest read and checked, with its jobs; empty (and `exit_code` set) on failure.
+/// The manifest read and checked, with its jobs.
 struct LoadedManifest {
   std::string path;
   std::vector<NetlistJob> jobs;
 };
 
-std::optional<LoadedManifest> load_manifest(const BuildOptions& options, int& exit_code) {
-  std::string path = options.manifest;
+/// The manifest to read: --manifest (a folder means its rungs.toml), else the nearest
+/// rungs.toml. Throws BadInput when there is none.
+std::string manifest_path(const BuildOptions& options) {
   std::error_code ec;
-  if (path.empty()) {
-    path = find_manifest();
-    if (path.empty()) {
-      fmt::print(stderr,
-                 "rungs: no {} in this folder or any folder above it; give one with "
-                 "--manifest FILE\n",
-                 build::kManifestName);
-      exit_code = kExitBadInput;
-      return std::nullopt;
-    }
-  } else if (fs::is_directory(path, ec)) {
-    path = (fs::path(path) / build::kManifestName).string();
+  if (options.manifest.empty()) {
+    std::string path = find_manifest();
+    if (path.empty())
+      throw BadInput(
+          fmt::format("no {} in this folder or any folder above it; give one with --manifest FILE",
+                      build::kManifestName));
+    return path;
   }
-  std::string error;
-  const auto file = read_source(path, error);
-  if (!file) {
-    std::cerr << error;
-    exit_code = kExitInternal;
-    return std::nullopt;
-  }
-  syntax::Diagnostics diagnostics(*file);
+  if (fs::is_directory(options.manifest, ec))
+    return (fs::path(options.manifest) / build::kManifestName).string();
+  return options.manifest;
+}
+
+/// The job of one [[netlist]]; paths that lead nowhere are errors in `diagnostics`, pointed
+/// at in the manifest, since they are its mistake.
+NetlistJob job_of(const build::Manifest& manifest, const build::NetlistEntry& entry,
+                  const fs::path& folder, const BuildOptions& options,
+                  syntax::Diagnostics& diagnostics) {
+  NetlistJob job;
+  job.source = from_manifest(folder, entry.source);
+  job.header_name = fs::path(entry.source).lexically_normal().generic_string();
+  job.output = from_manifest(folder, entry.output);
+  if (!entry.report.empty()) job.report = from_manifest(folder, entry.report);
+  if (!entry.report_json.empty()) job.report_json = from_manifest(folder, entry.report_json);
+  const std::string templates = build::templates_of(manifest, entry);
+  if (!templates.empty()) job.templates = from_manifest(folder, templates);
+  job.library = entry.library;
+  job.with_ideal = entry.with_ideal;
+  job.defaults = manifest.defaults.settings;
+  job.analytic = options.analytic;
+  std::error_code ec;
+  if (!fs::is_regular_file(job.source, ec))
+    diagnostics.error(entry.source_span,
+                      fmt::format("no description at '{}' (paths are relative to the "
+                                  "manifest's folder)",
+                                  job.source));
+  if (!job.templates.empty() && !fs::is_directory(job.templates, ec))
+    diagnostics.error(
+        entry.templates.empty() ? manifest.defaults.templates_span : entry.templates_span,
+        fmt::format("no template folder at '{}' (paths are relative to the manifest's folder)",
+                    job.templates));
+  return job;
+}
+
+/// The manifest read and checked, its diagnostics printed. Throws BadInput, FileError, or
+/// FileHasErrors when the manifest has errors.
+LoadedManifest load_manifest(const BuildOptions& options) {
+  const std::string path = manifest_path(options);
+  const syntax::SourceFile file = read_source(path);
+  syntax::Diagnostics diagnostics(file);
   const build::Manifest manifest = build::parse_manifest(diagnostics);
-  const fs::path folder = fs::path(path).parent_path();
   LoadedManifest loaded{path, {}};
   if (!diagnostics.has_errors()) {
-    for (const build::NetlistEntry& entry : manifest.netlists) {
-      NetlistJob job;
-      job.source = from_manifest(folder, entry.source);
-      job.header_name = fs::path(entry.source).lexically_normal().generic_string();
-      job.output = from_manifest(folder, entry.output);
-      if (!entry.report.empty()) job.report = from_manifest(folder, entry.report);
-      if (!entry.report_json.empty()) job.report_json = from_manifest(folder, entry.report_json);
-      const std::string templates = build::templates_of(manifest, entry);
-      if (!templates.empty()) job.templates = from_manifest(folder, templates);
-      job.library = entry.library;
-      job.with_ideal = entry.with_ideal;
-      job.defaults = manifest.defaults.settings;
-      job.analytic = options.analytic;
-      // Paths that lead nowhere are the manifest's mistake: point at them there.
-      if (!fs::is_regular_file(job.source, ec))
-        diagnostics.error(entry.source_span,
-                          fmt::format("no description at '{}' (paths are relative to the "
-                                      "manifest's folder)",
-                                      job.source));
-      if (!job.templates.empty() && !fs::is_directory(job.templates, ec))
-        diagnostics.error(
-            entry.templates.empty() ? manifest.defaults.templates_span : entry.templates_span,
-            fmt::format("no template folder at '{}' (paths are relative to the "
-                        "manifest's folder)",
-                        job.templates));
-      loaded.jobs.push_back(std::move(job));
-    }
+    for (const build::NetlistEntry& entry : manifest.netlists)
+      loaded.jobs.push_back(
+          job_of(manifest, entry, fs::path(path).parent_path(), options, diagnostics));
   }
   std::cerr << diagnostics.render();
-  if (diagnostics.has_errors()) {
-    fmt::print(stderr, "{}: {} error{}; nothing written\n", file->name, diagnostics.error_count(),
-               diagnostics.error_count() == 1 ? "" : "s");
-    exit_code = kExitBadInput;
-    return std::nullopt;
-  }
+  if (diagnostics.has_errors()) throw FileHasErrors(file.name, diagnostics.error_count());
   return loaded;
 }
 
@@ -120,8 +121,9 @@ std::optional<LoadedManifest> load_manifest(const BuildOptions& options, int& ex
 struct Task {
   std::size_t job = 0;
   JobOutput output;
-  WriteOutcome written;
-  Comparison compared;
+  bool changed = false;  // written: its bytes changed
+  Comparison compared;   // with --check
+  std::optional<Error> error;
 };
 
 std::string stale_reason(const Task& task) {
@@ -132,21 +134,23 @@ std::string stale_reason(const Task& task) {
 }
 
 /// Writes one output if its bytes change, making its folder first: a fresh checkout has no
-/// empty folders, since git keeps none.
-WriteOutcome write_output(const JobOutput& output) {
+/// empty folders, since git keeps none. Returns whether it was written; throws FileError.
+bool write_output(const JobOutput& output) {
   const fs::path folder = fs::path(output.path).parent_path();
   std::error_code ec;
   if (!folder.empty() && !fs::is_directory(folder, ec)) {
     fs::create_directories(folder, ec);
-    if (ec) return {fmt::format("cannot make the folder '{}': {}", folder.string(), ec.message())};
+    if (ec)
+      throw FileError(
+          fmt::format("cannot make the folder '{}': {}", folder.string(), ec.message()));
   }
   return write_if_changed(output.path, output.write, false, true);
 }
 
-/// The depfile of a build: every output, made from the manifest, the descriptions and the
-/// templates. Empty, with `error` set, when a path cannot be written in make syntax.
-std::string build_depfile(const LoadedManifest& manifest, const std::vector<Task>& tasks,
-                          const std::vector<Preparation>& prepared, std::string& error) {
+/// Writes the depfile of a build, if it changes: every output, made from the manifest, the
+/// descriptions and the templates. Throws FileError.
+void write_build_depfile(const std::string& depfile, const LoadedManifest& manifest,
+                         const std::vector<Task>& tasks, const std::vector<Preparation>& prepared) {
   std::vector<std::string> targets, prerequisites;
   for (const Task& task : tasks) targets.push_back(task.output.path);
   std::error_code ec;
@@ -154,65 +158,106 @@ std::string build_depfile(const LoadedManifest& manifest, const std::vector<Task
   for (std::size_t i = 0; i < manifest.jobs.size(); ++i)
     for (std::string& path : job_prerequisites(manifest.jobs[i], *prepared[i].netlist))
       prerequisites.push_back(std::move(path));
-  error = build::depfile_problem(targets, prerequisites);
-  return build::make_depfile(targets, prerequisites);
+  if (std::string problem = build::depfile_problem(targets, prerequisites); !problem.empty())
+    throw FileError(problem);
+  const std::string text = build::make_depfile(targets, prerequisites);
+  write_if_changed(
+      depfile, [&](std::ostream& out) { out << text; }, false, true);
 }
 
-/// Reads and plans every description on `threads` threads; prints their messages in
-/// manifest order. Returns the worst exit code.
-int prepare_all(const LoadedManifest& manifest, unsigned threads,
+/// Reads and plans every description, `jobs` at once on `pool`; prints their messages and
+/// errors in manifest order. Returns the worst exit code.
+int prepare_all(const LoadedManifest& manifest, plan::ThreadPool& pool, unsigned jobs,
                 std::vector<Preparation>& prepared) {
   prepared.resize(manifest.jobs.size());
-  for_each_parallel(prepared.size(), threads, [&](std::size_t i) {
-    try {
-      prepared[i] = prepare_netlist(manifest.jobs[i]);
-    } catch (const std::exception& e) {
-      prepared[i].messages = fmt::format("rungs: internal error: {}\n", e.what());
-      prepared[i].exit_code = kExitInternal;
-    }
-  });
+  {
+    // The one progress line of the build, from this thread: the tasks print nothing.
+    const bool quick = std::all_of(manifest.jobs.begin(), manifest.jobs.end(),
+                                   [](const NetlistJob& job) { return job.analytic; });
+    const ProgressNote note(quick ? ""
+                                  : fmt::format("verifying the ladders of {} description{}",
+                                                prepared.size(), prepared.size() == 1 ? "" : "s"));
+    pool.for_each(
+        prepared.size(),
+        [&](std::size_t i) {
+          try {
+            prepared[i] = prepare_netlist(manifest.jobs[i], pool);
+          } catch (const std::exception& e) {
+            prepared[i].error = InternalError(e);
+          }
+        },
+        jobs);
+  }
   int exit_code = kExitOk;
   for (const Preparation& p : prepared) {
     std::cerr << p.messages;
-    if (!p.netlist) exit_code = std::max(exit_code, p.exit_code);
+    if (p.error) exit_code = std::max(exit_code, report(*p.error));
   }
   return exit_code;
 }
 
-/// True (having said why) when a netlist to be written would replace a foreign file.
-bool refuse_foreign_outputs(const std::vector<Task>& tasks) {
-  bool refused = false;
-  for (const Task& task : tasks) {
-    if (task.output.is_netlist && is_foreign_file(task.output.path)) {
-      fmt::print(stderr,
-                 "rungs: '{}' exists and was not written by rungs; not overwriting "
-                 "it (use --force to replace it)\n",
-                 task.output.path);
-      refused = true;
-    }
-  }
-  return refused;
+/// Every output of every job, netlists first within a job.
+std::vector<Task> tasks_of(const LoadedManifest& manifest,
+                           const std::vector<Preparation>& prepared) {
+  std::vector<Task> tasks;
+  for (std::size_t i = 0; i < manifest.jobs.size(); ++i)
+    for (JobOutput& output : job_outputs(manifest.jobs[i], *prepared[i].netlist))
+      tasks.push_back({i, std::move(output), false, {}, std::nullopt});
+  return tasks;
+}
+
+/// Reports each netlist to be written that would replace a foreign file; returns the exit
+/// code of that (kExitOk when there is none).
+int refuse_foreign_outputs(const std::vector<Task>& tasks) {
+  int exit_code = kExitOk;
+  for (const Task& task : tasks)
+    if (task.output.is_netlist && is_foreign_file(task.output.path))
+      exit_code = std::max(exit_code, report(RefusedOverwrite(task.output.path)));
+  return exit_code;
+}
+
+/// Writes, or with --check compares, every output, `jobs` at once on `pool`; what became of
+/// each is in its task.
+void run_tasks(std::vector<Task>& tasks, const BuildOptions& options, plan::ThreadPool& pool,
+               unsigned jobs) {
+  pool.for_each(
+      tasks.size(),
+      [&](std::size_t i) {
+        Task& task = tasks[i];
+        try {
+          if (options.check)
+            task.compared =
+                compare_with_file(task.output.path, task.output.write, build::kHeadBytes);
+          else
+            task.changed = write_output(task.output);
+        } catch (const Error& e) {
+          task.error = e;
+        } catch (const std::exception& e) {
+          task.error = InternalError(e);
+        }
+      },
+      jobs);
 }
 
 /// Prints what became of each task, in manifest order; returns how many were stale (with
-/// --check) or written, and sets `exit_code` on a write error.
+/// --check) or written, and raises `exit_code` to that of each error.
 std::size_t print_outcomes(const std::vector<Task>& tasks, const std::vector<Preparation>& prepared,
                            const BuildOptions& options, int& exit_code) {
   std::size_t count = 0;
   for (const Task& task : tasks) {
-    if (!task.written.error.empty()) {
-      fmt::print(stderr, "rungs: {}\n", task.written.error);
-      exit_code = kExitInternal;
+    if (task.error) {
+      exit_code = std::max(exit_code, report(*task.error));
     } else if (options.check && !task.compared.same) {
       fmt::print("{}: {}\n", task.output.path, stale_reason(task));
       ++count;
-    } else if (!options.check && task.written.changed) {
+    } else if (!options.check && task.changed) {
       const PreparedNetlist& netlist = *prepared[task.job].netlist;
       if (!options.quiet && task.output.is_netlist)
-        fmt::print(stderr, "rungs: wrote {}: {}\n", task.output.path,
-                   report::plan_summary(netlist.circuit, netlist.plan, verification_of(netlist)));
+        print_note(fmt::format(
+            "wrote {}: {}", task.output.path,
+            report::plan_summary(netlist.circuit, netlist.plan, verification_of(netlist))));
       else if (!options.quiet)
-        fmt::print(stderr, "rungs: wrote {}\n", task.output.path);
+        print_note(fmt::format("wrote {}", task.output.path));
       ++count;
     }
   }
@@ -220,77 +265,61 @@ std::size_t print_outcomes(const std::vector<Task>& tasks, const std::vector<Pre
   return count;
 }
 
+/// The end of `rungs build --check` with `stale` of `total` outputs stale or missing.
+int check_outcome(std::size_t stale, std::size_t total, bool quiet) {
+  const char* outputs_are = total == 1 ? " is" : "s are";
+  if (stale > 0) {
+    const CheckFailed failed(fmt::format("{} of {} output{} stale or missing; run rungs build",
+                                         stale, total, outputs_are));
+    return quiet ? failed.exit_code() : report(failed);
+  }
+  if (!quiet) print_note(fmt::format("all {} output{} up to date", total, outputs_are));
+  return kExitOk;
+}
+
+/// Writes, or with --check compares, every output, and tells what became of each; returns
+/// the exit code.
+int write_or_check(const LoadedManifest& manifest, std::vector<Task>& tasks,
+                   const std::vector<Preparation>& prepared, const BuildOptions& options,
+                   plan::ThreadPool& pool, unsigned jobs) {
+  run_tasks(tasks, options, pool, jobs);
+  int exit_code = kExitOk;
+  const std::size_t count = print_outcomes(tasks, prepared, options, exit_code);
+  if (exit_code != kExitOk) return exit_code;
+  if (options.check) return check_outcome(count, tasks.size(), options.quiet);
+  if (!options.depfile.empty()) write_build_depfile(options.depfile, manifest, tasks, prepared);
+  if (!options.quiet)
+    print_note(fmt::format("{} output{}: {} written, {} unchanged", tasks.size(),
+                           tasks.size() == 1 ? "" : "s", count, tasks.size() - count));
+  return kExitOk;
+}
+
 }  // namespace
 
 int build_command(const BuildOptions& options) {
-  if (options.check && !options.depfile.empty()) {
-    fmt::print(stderr, "rungs: --check writes nothing; leave out --depfile\n");
-    return kExitBadInput;
-  }
-  int exit_code = kExitOk;
-  const auto manifest = load_manifest(options, exit_code);
-  if (!manifest) return exit_code;
-  const unsigned threads = options.jobs == 0 ? default_thread_count() : options.jobs;
+  if (options.check && !options.depfile.empty())
+    throw BadInput("--check writes nothing; leave out --depfile");
+  const LoadedManifest manifest = load_manifest(options);
+  const unsigned jobs = options.jobs == 0 ? plan::ThreadPool::core_count() : options.jobs;
+  // One pool for the descriptions and the planner's measurements within each: -j N
+  // descriptions at once, and never more threads at work than N or the cores, whichever is
+  // more.
+  plan::ThreadPool pool(std::max(jobs, plan::ThreadPool::core_count()));
 
-  // Every description is read and planned before anything is written, so that one bad
-  // description leaves every output as it was.
+  // Every description is read and planned, and every netlist's place checked, before
+  // anything is written, so that one bad description leaves every output as it was.
   std::vector<Preparation> prepared;
-  exit_code = prepare_all(*manifest, threads, prepared);
+  int exit_code = prepare_all(manifest, pool, jobs, prepared);
+  std::vector<Task> tasks;
+  if (exit_code == kExitOk) {
+    tasks = tasks_of(manifest, prepared);
+    if (!options.check && !options.force) exit_code = refuse_foreign_outputs(tasks);
+  }
   if (exit_code != kExitOk) {
-    fmt::print(stderr, "rungs: nothing written\n");
+    print_note("nothing written");
     return exit_code;
   }
-  std::vector<Task> tasks;
-  for (std::size_t i = 0; i < manifest->jobs.size(); ++i)
-    for (JobOutput& output : job_outputs(manifest->jobs[i], *prepared[i].netlist))
-      tasks.push_back({i, std::move(output), {}, {}});
-  if (!options.check && !options.force && refuse_foreign_outputs(tasks)) {
-    fmt::print(stderr, "rungs: nothing written\n");
-    return kExitBadInput;
-  }
-
-  for_each_parallel(tasks.size(), threads, [&](std::size_t i) {
-    Task& task = tasks[i];
-    try {
-      if (options.check)
-        task.compared = compare_with_file(task.output.path, task.output.write, build::kHeadBytes);
-      else
-        task.written = write_output(task.output);
-    } catch (const std::exception& e) {
-      task.written.error = fmt::format("internal error: {}", e.what());
-    }
-  });
-  const std::size_t count = print_outcomes(tasks, prepared, options, exit_code);
-  if (exit_code != kExitOk) return exit_code;
-
-  if (options.check) {
-    if (count > 0) {
-      if (!options.quiet)
-        fmt::print(stderr, "rungs: {} of {} output{} stale or missing; run rungs build\n", count,
-                   tasks.size(), tasks.size() == 1 ? " is" : "s are");
-      return kExitCheckFailed;
-    }
-    if (!options.quiet)
-      fmt::print(stderr, "rungs: all {} output{} up to date\n", tasks.size(),
-                 tasks.size() == 1 ? " is" : "s are");
-    return kExitOk;
-  }
-  if (!options.depfile.empty()) {
-    std::string error;
-    const std::string text = build_depfile(*manifest, tasks, prepared, error);
-    if (error.empty())
-      error = write_if_changed(
-                  options.depfile, [&](std::ostream& out) { out << text; }, false, true)
-                  .error;
-    if (!error.empty()) {
-      fmt::print(stderr, "rungs: {}\n", error);
-      return kExitInternal;
-    }
-  }
-  if (!options.quiet)
-    fmt::print(stderr, "rungs: {} output{}: {} written, {} unchanged\n", tasks.size(),
-               tasks.size() == 1 ? "" : "s", count, tasks.size() - count);
-  return kExitOk;
+  return write_or_check(manifest, tasks, prepared, options, pool, jobs);
 }
 
 }  // namespace rungs::cli

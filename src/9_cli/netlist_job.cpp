@@ -1,7 +1,5 @@
 // One description through the pipeline: read, defaults, resolve, plan, templates, outputs.
 #include "9_cli/netlist_job.h"
-#include "9_cli/output_file.h"
-#include "9_cli/progress.h"
 
 #include <algorithm>
 #include <cerrno>
@@ -13,13 +11,15 @@
 
 #include <fmt/format.h>
 
-#include "9_cli/commands.h"
-#include "6_emit/sha256.h"
-#include "3_model/resolve.h"
-#include "7_report/plan_report.h"
-#include "7_report/plots.h"
 #include "1_syntax/parser.h"
 #include "1_syntax/suggest.h"
+#include "3_model/resolve.h"
+#include "6_emit/sha256.h"
+#include "7_report/plan_report.h"
+#include "7_report/plots.h"
+#include "9_cli/errors.h"
+#include "9_cli/output_file.h"
+#include "9_cli/progress.h"
 
 namespace rungs::cli {
 
@@ -28,17 +28,14 @@ namespace fs = std::filesystem;
 namespace {
 
 /// The built-in templates with any found in `folder` (NAME.tmpl) put in their place; the
-/// files read are added to `files`. Empty, with `error` set, on a bad folder or name.
-std::optional<emit::TemplateSet> load_templates(const std::string& folder,
-                                                std::vector<std::string>& files,
-                                                std::string& error) {
+/// files read are added to `files`. Throws BadInput for a bad folder or name, FileError for a
+/// file that cannot be read.
+emit::TemplateSet load_templates(const std::string& folder, std::vector<std::string>& files) {
   emit::TemplateSet templates = emit::builtin_templates();
   if (folder.empty()) return templates;
   std::error_code ec;
-  if (!fs::is_directory(folder, ec)) {
-    error = fmt::format("rungs: --templates '{}' is not a folder\n", folder);
-    return std::nullopt;
-  }
+  if (!fs::is_directory(folder, ec))
+    throw BadInput(fmt::format("--templates '{}' is not a folder", folder));
   std::vector<std::string_view> known;
   for (const auto& [name, text] : emit::builtin_templates()) known.push_back(name);
   std::vector<fs::path> paths;
@@ -47,18 +44,14 @@ std::optional<emit::TemplateSet> load_templates(const std::string& folder,
   std::sort(paths.begin(), paths.end());
   for (const fs::path& path : paths) {
     const std::string name = path.stem().string();
-    if (!templates.count(name)) {
-      error = fmt::format("rungs: {}: no deck part is called '{}'{}\n", path.string(), name,
-                          syntax::did_you_mean(name, known));
-      return std::nullopt;
-    }
+    if (!templates.count(name))
+      throw BadInput(fmt::format("{}: no deck part is called '{}'{}", path.string(), name,
+                                 syntax::did_you_mean(name, known)));
     std::ifstream in(path, std::ios::binary);
     std::ostringstream text;
     text << in.rdbuf();
-    if (!in) {
-      error = fmt::format("rungs: cannot read '{}': {}\n", path.string(), std::strerror(errno));
-      return std::nullopt;
-    }
+    if (!in)
+      throw FileError(fmt::format("cannot read '{}': {}", path.string(), std::strerror(errno)));
     templates[name] = text.str();
     files.push_back(path.string());
   }
@@ -71,19 +64,79 @@ std::string absolute_path(const std::string& path) {
   return (ec ? fs::path(path) : absolute).lexically_normal().string();
 }
 
+/// The job's description with its defaults applied, resolved and planned by the analytic
+/// estimate; the diagnostics are added to `messages`. Throws FileHasErrors when the
+/// description has errors.
+PreparedNetlist resolve_and_plan(const NetlistJob& job, syntax::SourceFile file,
+                                 std::string& messages) {
+  PreparedNetlist netlist;
+  netlist.file = std::move(file);
+  syntax::Diagnostics diagnostics(netlist.file);
+  auto description = syntax::parse_description(diagnostics);
+  build::apply_defaults(description, job.defaults);
+  netlist.circuit = model::resolve(description, diagnostics);
+  if (!diagnostics.has_errors()) netlist.plan = plan::plan_circuit(netlist.circuit, diagnostics);
+  messages += diagnostics.render();
+  if (diagnostics.has_errors()) throw FileHasErrors(netlist.file.name, diagnostics.error_count());
+  return netlist;
+}
+
+/// The verified plan in place of the analytic one; when the exact reference cannot take the
+/// circuit, the analytic plan stands and a warning in `messages` says so.
+void verify_counts(PreparedNetlist& netlist, plan::ThreadPool& pool, std::string& messages) {
+  try {
+    auto [verified, verification] = plan::plan_verified(netlist.circuit, netlist.plan, pool);
+    netlist.plan = std::move(verified);
+    netlist.verification = std::move(verification);
+  } catch (const std::exception& e) {
+    messages += fmt::format(
+        "{}: warning: the exact reference cannot check this design ({}); "
+        "the analytic plan is used\n",
+        netlist.file.name, e.what());
+  }
+}
+
+/// The switches' open voltages when they start to close, unless the verified planner found
+/// them; when they cannot be found, the switches close at once and a warning says so.
+void fill_closing_voltages(PreparedNetlist& netlist, std::string& messages) {
+  if (!netlist.plan.closing_voltage.empty()) return;
+  try {
+    plan::set_closing_voltages(netlist.circuit, netlist.plan);
+  } catch (const std::exception& e) {
+    messages += fmt::format(
+        "{}: warning: the switches' open voltages cannot be found ({}); "
+        "they close at once\n",
+        netlist.file.name, e.what());
+    std::fill(netlist.plan.closing.begin(), netlist.plan.closing.end(), 0.0);
+    netlist.plan.closing_voltage.assign(netlist.circuit.loads.size(), 0.0);
+  }
+}
+
+/// prepare_netlist, throwing the error that stops it.
+PreparedNetlist prepare(const NetlistJob& job, syntax::SourceFile file, plan::ThreadPool& pool,
+                        std::string& messages) {
+  PreparedNetlist netlist = resolve_and_plan(job, std::move(file), messages);
+  // A bad template is found before anything is written.
+  netlist.templates = load_templates(job.templates, netlist.template_files);
+  if (std::string problem = emit::check_templates(netlist.templates); !problem.empty())
+    throw BadInput(problem);
+  if (!job.analytic) verify_counts(netlist, pool, messages);
+  fill_closing_voltages(netlist, messages);
+  if (!job.report.empty() || !job.report_json.empty())
+    netlist.peak = sim::estimate_peak(netlist.circuit, netlist.plan.window);
+  return netlist;
+}
+
 }  // namespace
 
-std::optional<syntax::SourceFile> read_source(const std::string& path, std::string& error) {
+syntax::SourceFile read_source(const std::string& path) {
   std::ostringstream text;
   if (path == "-") {
     text << std::cin.rdbuf();
     return syntax::SourceFile{"<stdin>", text.str()};
   }
   std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    error = fmt::format("rungs: cannot read '{}': {}\n", path, std::strerror(errno));
-    return std::nullopt;
-  }
+  if (!in) throw FileError(fmt::format("cannot read '{}': {}", path, std::strerror(errno)));
   text << in.rdbuf();
   return syntax::SourceFile{path, text.str()};
 }
@@ -92,89 +145,55 @@ const plan::Verification* verification_of(const PreparedNetlist& netlist) {
   return netlist.verification ? &*netlist.verification : nullptr;
 }
 
-Preparation prepare_netlist(const NetlistJob& job) {
+Preparation prepare_netlist(const NetlistJob& job, syntax::SourceFile file,
+                            plan::ThreadPool& pool) {
   Preparation result;
-  auto file = read_source(job.source, result.messages);
-  if (!file) {
-    result.exit_code = kExitInternal;
-    return result;
+  try {
+    result.netlist = prepare(job, std::move(file), pool, result.messages);
+  } catch (const Error& e) {
+    result.error = e;
   }
-  PreparedNetlist netlist;
-  netlist.file = std::move(*file);
-  syntax::Diagnostics diagnostics(netlist.file);
-  auto description = syntax::parse_description(diagnostics);
-  build::apply_defaults(description, job.defaults);
-  netlist.circuit = model::resolve(description, diagnostics);
-  if (!diagnostics.has_errors()) netlist.plan = plan::plan_circuit(netlist.circuit, diagnostics);
-  result.messages += diagnostics.render();
-  if (diagnostics.has_errors()) {
-    result.messages +=
-        fmt::format("{}: {} error{}; nothing written\n", netlist.file.name,
-                    diagnostics.error_count(), diagnostics.error_count() == 1 ? "" : "s");
-    result.exit_code = kExitBadInput;
-    return result;
-  }
-  std::string error;
-  auto templates = load_templates(job.templates, netlist.template_files, error);
-  // A bad template is found before anything is written.
-  if (templates) {
-    if (std::string problem = emit::check_templates(*templates); !problem.empty())
-      error = fmt::format("rungs: {}\n", problem);
-  }
-  if (!error.empty()) {
-    result.messages += error;
-    result.exit_code = kExitBadInput;
-    return result;
-  }
-  netlist.templates = std::move(*templates);
-  if (!job.analytic) {
-    try {
-      const ProgressNote note(fmt::format("verifying the ladders of {}", netlist.circuit.name));
-      auto [verified, verification] = plan::plan_verified(netlist.circuit, netlist.plan);
-      netlist.plan = std::move(verified);
-      netlist.verification = std::move(verification);
-    } catch (const std::exception& e) {
-      result.messages += fmt::format("{}: warning: the exact reference cannot check this design "
-                                     "({}); the analytic plan is used\n",
-                                     netlist.file.name, e.what());
-    }
-  }
-  if (netlist.plan.closing_voltage.empty()) {
-    try {
-      plan::set_closing_voltages(netlist.circuit, netlist.plan);
-    } catch (const std::exception& e) {
-      result.messages += fmt::format("{}: warning: the switches' open voltages cannot be found "
-                                     "({}); they close at once\n",
-                                     netlist.file.name, e.what());
-      std::fill(netlist.plan.closing.begin(), netlist.plan.closing.end(), 0.0);
-      netlist.plan.closing_voltage.assign(netlist.circuit.loads.size(), 0.0);
-    }
-  }
-  if (!job.report.empty() || !job.report_json.empty())
-    netlist.peak = sim::estimate_peak(netlist.circuit, netlist.plan.window);
-  result.netlist = std::move(netlist);
   return result;
 }
 
-std::string write_plots(const std::string& folder, const PreparedNetlist& netlist) {
+Preparation prepare_netlist(const NetlistJob& job, plan::ThreadPool& pool) {
+  try {
+    return prepare_netlist(job, read_source(job.source), pool);
+  } catch (const Error& e) {
+    Preparation result;
+    result.error = e;
+    return result;
+  }
+}
+
+PreparedNetlist prepare_for_command(const NetlistJob& job, plan::ThreadPool& pool) {
+  syntax::SourceFile file = read_source(job.source);
+  Preparation prepared = [&] {
+    const ProgressNote note(job.analytic ? ""
+                                         : fmt::format("verifying the ladders of {}", file.name));
+    return prepare_netlist(job, std::move(file), pool);
+  }();
+  std::cerr << prepared.messages;
+  if (prepared.error) throw *prepared.error;
+  return std::move(*prepared.netlist);
+}
+
+void write_plots(const std::string& folder, const PreparedNetlist& netlist) {
   std::error_code ec;
   std::filesystem::create_directories(folder, ec);
-  if (ec) return fmt::format("cannot make the folder '{}': {}", folder, ec.message());
+  if (ec) throw FileError(fmt::format("cannot make the folder '{}': {}", folder, ec.message()));
   std::vector<report::PlotFile> plots;
   try {
-    const ProgressNote note("drawing the charts");
     plots = report::plan_plots(netlist.circuit, netlist.plan,
                                plan::measure_plan_curves(netlist.circuit, netlist.plan));
   } catch (const std::exception& e) {
-    return fmt::format("cannot draw the charts: {}", e.what());
+    throw ReferenceFailed(fmt::format("cannot draw the charts: {}", e.what()));
   }
   for (const report::PlotFile& plot : plots) {
     const std::string path = (std::filesystem::path(folder) / plot.name).string();
-    std::string error = write_atomically(
+    write_atomically(
         path, [&](std::ostream& out) { out << plot.svg; }, /*protect_foreign=*/false, true);
-    if (!error.empty()) return error;
   }
-  return "";
 }
 
 std::vector<JobOutput> job_outputs(const NetlistJob& job, const PreparedNetlist& netlist) {

@@ -6,13 +6,15 @@
 #include <string>
 #include <vector>
 
-#include "8_project/manifest.h"
-#include "6_emit/deck.h"
-#include "3_model/circuit.h"
-#include "5_plan/plan.h"
-#include "5_plan/verify.h"
-#include "4_sim/peak.h"
 #include "1_syntax/source.h"
+#include "3_model/circuit.h"
+#include "4_sim/peak.h"
+#include "5_plan/plan.h"
+#include "5_plan/thread_pool.h"
+#include "5_plan/verify.h"
+#include "6_emit/deck.h"
+#include "8_project/manifest.h"
+#include "9_cli/errors.h"
 
 namespace rungs::cli {
 
@@ -38,30 +40,39 @@ struct PreparedNetlist {
   model::Circuit circuit;
   plan::Plan plan;
   emit::TemplateSet templates;
-  std::vector<std::string> template_files;  // the override files read
-  std::optional<sim::PeakEstimate> peak;    // computed when a report is asked for
+  std::vector<std::string> template_files;         // the override files read
+  std::optional<sim::PeakEstimate> peak;           // computed when a report is asked for
   std::optional<plan::Verification> verification;  // when the job verifies
 };
 
-/// The outcome of prepare_netlist: a netlist, or the exit code of why not.
+/// The outcome of prepare_netlist: a netlist, or the error that stopped it.
 struct Preparation {
   std::optional<PreparedNetlist> netlist;
-  std::string messages;  // diagnostics and errors, for standard error, in order
-  int exit_code = 0;
+  std::string messages;        // diagnostics and warnings, for standard error, in order
+  std::optional<Error> error;  // set when there is no netlist; printed after `messages`
 };
 
 /// Reads the job's description and templates, applies its defaults, resolves, plans (with
-/// the verified planner unless job.analytic; if the exact reference cannot take the circuit, the
-/// analytic plan stands and a warning says so), fills the switches' closing voltages, and checks the templates. Writes nothing and prints nothing: every message is in `messages`.
-/// Safe to call from several threads at once.
-Preparation prepare_netlist(const NetlistJob& job);
+/// the verified planner on `pool` unless job.analytic; if the exact reference cannot take the
+/// circuit, the analytic plan stands and a warning says so), fills the switches' closing
+/// voltages, and checks the templates. Writes nothing and prints nothing, not even progress:
+/// every message is in the result. Safe to call from several threads at once.
+Preparation prepare_netlist(const NetlistJob& job, plan::ThreadPool& pool);
+/// As above, with the description's text already read (`file`).
+Preparation prepare_netlist(const NetlistJob& job, syntax::SourceFile file, plan::ThreadPool& pool);
+
+/// prepare_netlist for a command's top level, on its main thread: reads the description, then
+/// shows a progress line on the terminal while the ladders are verified (not while standard
+/// input is read), prints the messages on standard error, and returns the netlist or throws
+/// its error.
+PreparedNetlist prepare_for_command(const NetlistJob& job, plan::ThreadPool& pool);
 
 /// The verification of a prepared netlist, or null when it was planned analytically.
 const plan::Verification* verification_of(const PreparedNetlist& netlist);
 
-/// Writes the plan's charts (report/plots.h) as SVG files into `folder`, creating it. Returns
-/// an error message, or empty.
-std::string write_plots(const std::string& folder, const PreparedNetlist& netlist);
+/// Writes the plan's charts (report/plots.h) as SVG files into `folder`, creating it. Throws
+/// FileError, or ReferenceFailed when a chart's waveforms cannot be computed.
+void write_plots(const std::string& folder, const PreparedNetlist& netlist);
 
 /// One file a netlist job produces.
 struct JobOutput {
@@ -79,8 +90,8 @@ std::vector<JobOutput> job_outputs(const NetlistJob& job, const PreparedNetlist&
 /// it is written, and outputs beside the templates would then never be up to date.
 std::vector<std::string> job_prerequisites(const NetlistJob& job, const PreparedNetlist& netlist);
 
-/// Reads a description from a path, or from standard input for "-"; on failure, `error`
-/// says why and the result is empty.
-std::optional<syntax::SourceFile> read_source(const std::string& path, std::string& error);
+/// Reads a description from a path, or from standard input for "-"; throws FileError when it
+/// cannot be read.
+syntax::SourceFile read_source(const std::string& path);
 
 }  // namespace rungs::cli

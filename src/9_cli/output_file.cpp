@@ -18,6 +18,7 @@
 #include <unistd.h>
 
 #include "6_emit/deck.h"
+#include "9_cli/errors.h"
 
 namespace rungs::cli {
 
@@ -164,27 +165,25 @@ bool sync_file(const fs::path& path) {
   return ok;
 }
 
-std::string refuse_foreign(const std::string& path, bool protect_foreign, bool force) {
-  if (!protect_foreign || force || !is_foreign_file(path)) return "";
-  return fmt::format(
-      "'{}' exists and was not written by rungs; not overwriting it "
-      "(use --force to replace it)",
-      path);
+void refuse_foreign(const std::string& path, bool protect_foreign, bool force) {
+  if (protect_foreign && !force && is_foreign_file(path)) throw RefusedOverwrite(path);
 }
 
 /// Writes `path` through a temporary file beside it; with `keep_if_same`, an existing file
-/// that already holds the bytes is left as it is, and no temporary file is made.
-WriteOutcome write_through_temporary(const std::string& path, const ContentWriter& write,
-                                     bool keep_if_same) {
+/// that already holds the bytes is left as it is, and no temporary file is made. Returns
+/// whether the file was replaced; throws FileError.
+bool write_through_temporary(const std::string& path, const ContentWriter& write,
+                             bool keep_if_same) {
   std::error_code ec;
   // Write through a link to the file it names, so the link stays; refuse anything that is
   // not a plain file (a device, a folder), which the rename would replace.
   fs::path target(path);
   if (fs::is_symlink(target, ec)) target = fs::weakly_canonical(target, ec);
   if (fs::exists(target, ec) && !fs::is_regular_file(target, ec))
-    return {fmt::format("'{}' is not a plain file; name a file to write, or - for standard "
-                        "output",
-                        path)};
+    throw FileError(
+        fmt::format("'{}' is not a plain file; name a file to write, or - for "
+                    "standard output",
+                    path));
   const fs::path temporary = target.parent_path() / temporary_name(target);
   std::filebuf file;
   int open_errno = 0;
@@ -199,28 +198,28 @@ WriteOutcome write_through_temporary(const std::string& path, const ContentWrite
   std::ostream out(&buffer);
   write(out);
   const bool same = buffer.finish();
-  if (same) return {"", false};
+  if (same) return false;
   if (open_errno != 0)
-    return {fmt::format("cannot write '{}': {}", path, std::strerror(open_errno))};
+    throw FileError(fmt::format("cannot write '{}': {}", path, std::strerror(open_errno)));
   const bool closed = file.close() != nullptr;
   const int saved_errno = errno;
   if (buffer.sink_failed() || !closed || !out) {
     fs::remove(temporary, ec);
-    return {fmt::format("cannot write '{}': {}", path, std::strerror(saved_errno))};
+    throw FileError(fmt::format("cannot write '{}': {}", path, std::strerror(saved_errno)));
   }
   if (!sync_file(temporary)) {
     const std::string reason = std::strerror(errno);
     fs::remove(temporary, ec);
-    return {fmt::format("cannot write '{}': {}", path, reason)};
+    throw FileError(fmt::format("cannot write '{}': {}", path, reason));
   }
   fs::rename(temporary, target, ec);
   if (ec) {
     const std::string reason = ec.message();
     fs::remove(temporary, ec);
-    return {fmt::format("cannot replace '{}': {}", path, reason)};
+    throw FileError(fmt::format("cannot replace '{}': {}", path, reason));
   }
   remove_leftover_temporaries(target);
-  return {"", true};
+  return true;
 }
 
 }  // namespace
@@ -239,22 +238,25 @@ bool is_foreign_file(const std::string& path) {
   return !emit::is_deck_marker(read_first_line(path));
 }
 
-std::string write_atomically(const std::string& path, const ContentWriter& write,
-                             bool protect_foreign, bool force) {
+void write_atomically(const std::string& path, const ContentWriter& write, bool protect_foreign,
+                      bool force) {
   if (path == "-") {
     write(std::cout);
-    std::cout.flush();
-    return std::cout ? "" : "cannot write to standard output";
+    finish_standard_output();
+    return;
   }
-  if (std::string refused = refuse_foreign(path, protect_foreign, force); !refused.empty())
-    return refused;
-  return write_through_temporary(path, write, /*keep_if_same=*/false).error;
+  refuse_foreign(path, protect_foreign, force);
+  write_through_temporary(path, write, /*keep_if_same=*/false);
 }
 
-WriteOutcome write_if_changed(const std::string& path, const ContentWriter& write,
-                              bool protect_foreign, bool force) {
-  if (std::string refused = refuse_foreign(path, protect_foreign, force); !refused.empty())
-    return {refused};
+void finish_standard_output() {
+  std::cout.flush();
+  if (!std::cout) throw FileError("cannot write to standard output");
+}
+
+bool write_if_changed(const std::string& path, const ContentWriter& write, bool protect_foreign,
+                      bool force) {
+  refuse_foreign(path, protect_foreign, force);
   return write_through_temporary(path, write, /*keep_if_same=*/true);
 }
 

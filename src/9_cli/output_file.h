@@ -13,21 +13,19 @@ using ContentWriter = std::function<void(std::ostream&)>;
 /// flushing it to disk and renaming it over `path`, so a reader, or a build killed at any
 /// moment, sees the old file or the new one, never half of one. "-" writes to standard
 /// output. When `protect_foreign` is set, a foreign file (is_foreign_file) is left alone
-/// unless `force`. Returns an error message, or empty.
-std::string write_atomically(const std::string& path, const ContentWriter& write,
-                             bool protect_foreign, bool force);
-
-/// What write_if_changed did.
-struct WriteOutcome {
-  std::string error;     // empty on success
-  bool changed = false;  // the file was replaced (or created)
-};
+/// unless `force`: throws RefusedOverwrite. Throws FileError when the file cannot be written.
+void write_atomically(const std::string& path, const ContentWriter& write, bool protect_foreign,
+                      bool force);
 
 /// As write_atomically, but when the file already holds exactly the bytes `write` produces,
 /// it is left alone, timestamp included, and the temporary file is removed. The content is
-/// compared while it is produced, so a large file is never held in memory.
-WriteOutcome write_if_changed(const std::string& path, const ContentWriter& write,
-                              bool protect_foreign, bool force);
+/// compared while it is produced, so a large file is never held in memory. Returns whether the
+/// file was replaced (or created).
+bool write_if_changed(const std::string& path, const ContentWriter& write, bool protect_foreign,
+                      bool force);
+
+/// Flushes standard output; throws FileError when what was written to it could not be.
+void finish_standard_output();
 
 /// How a file on disk stands against the content `write` produces.
 struct Comparison {
