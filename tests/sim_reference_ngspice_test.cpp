@@ -7,6 +7,7 @@
 #include <regex>
 #include <sstream>
 
+#include "circuit_builders.h"
 #include "ngspice.h"
 #include "3_model/resolve.h"
 #include "5_plan/plan.h"
@@ -108,7 +109,7 @@ TEST_CASE("a switch closing over a ramp: ngspice's decks and the exact reference
   const auto circuit =
       rungs::model::resolve(rungs::syntax::parse_description(diagnostics), diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
-  const rungs::plan::Plan plan = rungs::plan::plan_circuit(circuit, diagnostics);
+  const rungs::plan::Plan plan = rungs::testing::analytic_plan(circuit);
   REQUIRE(plan.closing.size() == 2);
   CHECK(plan.closing[1] == Approx(1.25e-9));
   rungs::sim::ReferenceOptions options;
