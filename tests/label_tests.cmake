@@ -28,15 +28,19 @@ test_names("[ngspice]" ngspice)
 
 set(script "")
 foreach(name IN LISTS all)
+  # A slow test also gets a high COST, so that ctest -j starts it early even before it has
+  # timings of its own (Testing/Temporary/CTestCostData.txt).
   if(name IN_LIST slow)
     set(labels slow)
+    set(cost 100)
   else()
     set(labels fast)
+    set(cost 0)
   endif()
   if(name IN_LIST ngspice)
     list(APPEND labels ngspice)
   endif()
   string(APPEND script "set_tests_properties([==[${TEST_PREFIX}${name}]==] PROPERTIES LABELS "
-                       "\"${labels}\")\n")
+                       "\"${labels}\" COST ${cost})\n")
 endforeach()
 file(WRITE "${LABELS_FILE}" "${script}")
