@@ -86,9 +86,9 @@ TEST_CASE("warnings go to stderr and do not fail the command") {
 }
 
 namespace {
-// Issue 4's background (figures measured outside the project): with pi sections, a matched
-// source, an open end and a 2 % budget, a line whose delay equals the rise time needs 12
-// sections; the common rule's 10 err by more.
+// Measured outside the project: with pi sections, a matched source, an open end and a 2 %
+// budget, a line whose delay equals the rise time needs 12 sections; the common rule's 10
+// err by more.
 std::string open_line(const std::string& sections) {
   return "line t a -> b ideal z0=50ohm delay=1ns" + sections +
          "\ndrive a step 0V to 1V rise=1ns source=50ohm\nload b open\n";
@@ -116,8 +116,8 @@ TEST_CASE("rungs check: exit 0 for adequate ladders, 1 with a reason a line othe
 
 TEST_CASE("rungs check: a line failed by a fixed neighbour's ladder says so") {
   // Two 50 ohm lines in cascade; the first is fixed far too short (3 sections at delay/rise
-  // 1, against issue 4's 12), so the error it makes at the shared node fails the second line
-  // whatever count that one gets.
+  // 1, against the 12 measured outside the project), so the error it makes at the shared
+  // node fails the second line whatever count that one gets.
   auto r = run_rungs("check -", "line f a -> m ideal z0=50ohm delay=1ns sections=3\n"
                                 "line s m -> b ideal z0=50ohm delay=1ns\n"
                                 "drive a step 0V to 1V rise=1ns source=50ohm\nload b 50ohm\n");
@@ -143,13 +143,14 @@ TEST_CASE("rungs check --netlist: a netlist must be what emit writes now") {
   const std::string dir = "/tmp/rungs_check_test_" + std::to_string(::getpid());
   std::system(("mkdir -p " + dir).c_str());
   std::ofstream(dir + "/l.rungs") << open_line(" sections=12");
-  CHECK(run_rungs("emit -q " + dir + "/l.rungs -o " + dir + "/l.cir").exit_code == 0);
-  CHECK(run_rungs("check " + dir + "/l.rungs --netlist " + dir + "/l.cir").exit_code == 0);
+  CHECK(run_rungs("emit --analytic -q " + dir + "/l.rungs -o " + dir + "/l.cir").exit_code == 0);
+  CHECK(run_rungs("check --analytic " + dir + "/l.rungs --netlist " + dir + "/l.cir").exit_code ==
+        0);
   std::ofstream(dir + "/l.cir", std::ios::app) << "* edited by hand\n";
-  auto stale = run_rungs("check " + dir + "/l.rungs --netlist " + dir + "/l.cir");
+  auto stale = run_rungs("check --analytic " + dir + "/l.rungs --netlist " + dir + "/l.cir");
   CHECK(stale.exit_code == 1);
   CHECK(stale.out.find("stale") != std::string::npos);
-  auto missing = run_rungs("check " + dir + "/l.rungs --netlist " + dir + "/none.cir");
+  auto missing = run_rungs("check --analytic " + dir + "/l.rungs --netlist " + dir + "/none.cir");
   CHECK(missing.exit_code == 1);
   CHECK(missing.out.find("missing") != std::string::npos);
   std::system(("rm -rf " + dir).c_str());
@@ -157,7 +158,7 @@ TEST_CASE("rungs check --netlist: a netlist must be what emit writes now") {
 
 TEST_CASE("plan with a plot folder writes a waveform chart for each load and an error chart for each line") {
   const std::string dir = "/tmp/rungs_plot_test_" + std::to_string(::getpid());
-  auto r = run_rungs("plan --plot " + dir + " -", open_line(""));
+  auto r = run_rungs("plan --analytic --plot " + dir + " -", open_line(""));
   CHECK(r.exit_code == 0);
   for (const char* name : {"/waveform_b.svg", "/error_t.svg"}) {
     std::ifstream in(dir + name);
@@ -168,7 +169,7 @@ TEST_CASE("plan with a plot folder writes a waveform chart for each load and an 
   }
   std::ifstream error_chart(dir + "/error_t.svg");
   std::string text((std::istreambuf_iterator<char>(error_chart)), std::istreambuf_iterator<char>());
-  CHECK(text.find("chosen N = 12") != std::string::npos);
+  CHECK(text.find("chosen N = 7") != std::string::npos);  // the analytic count, as above
   CHECK(text.find("budget 2 %") != std::string::npos);
   std::system(("rm -rf " + dir).c_str());
 }

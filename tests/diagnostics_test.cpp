@@ -797,101 +797,100 @@ TEST_CASE("an error on a last line with no line break", "[file]") {
         "                                   ^\n");
 }
 
+// Messages that say what to write instead, or point past a first error to the real one.
 
-// Messages sharpened after review: each says what to write instead.
-
-TEST_CASE("a case slip in a load value gets that unit's did-you-mean", "[review]") {
+TEST_CASE("a case slip in a load value gets that unit's did-you-mean", "[units]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=1ns\ndrive x step 0V to 1V rise=1ns\nload y 4pf\n") ==
         "bad.rungs:3:8: error: unknown unit 'pf' for a capacitance; did you mean 'pF'? (prefixes are case-sensitive)\n"
         "load y 4pf\n"
         "       ^~~\n");
 }
 
-TEST_CASE("a load that ends in an operator asks for the value after it", "[review]") {
+TEST_CASE("a load that ends in an operator asks for the value after it", "[syntax]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=1ns\ndrive x step 0V to 1V rise=1ns\nload y 50ohm +\n") ==
         "bad.rungs:3:14: error: expected a value such as 50ohm, 4pF or 10nH after '+', found the end of the line\n"
         "load y 50ohm +\n"
         "             ^\n");
 }
 
-TEST_CASE("a parameter with no value before the next parameter", "[review]") {
+TEST_CASE("a parameter with no value before the next parameter", "[syntax]") {
   CHECK(diagnose("line a x -> y ideal z0= delay=1ns\nload y open\ndrive x step 0V to 1V rise=1ns\n") ==
         "bad.rungs:1:25: error: expected a value right after 'z0=', found 'delay'\n"
         "line a x -> y ideal z0= delay=1ns\n"
         "                        ^~~~~\n");
 }
 
-TEST_CASE("a blank between a number and its unit", "[review]") {
+TEST_CASE("a blank between a number and its unit", "[units]") {
   CHECK(diagnose("line a x -> y ideal z0=50 ohm delay=1ns\n") ==
         "bad.rungs:1:27: error: a unit follows its number with no blank between them: write 50ohm\n"
         "line a x -> y ideal z0=50 ohm delay=1ns\n"
         "                          ^~~\n");
 }
 
-TEST_CASE("M on a length is refused with advice that fits a length", "[review]") {
+TEST_CASE("M on a length is refused with advice that fits a length", "[units]") {
   CHECK(diagnose("line a x -> y coax inner=1mm outer=3mm er=2 length=4M\ndrive x step 0V to 1V rise=1ns\nload y open\n") ==
         "bad.rungs:1:52: error: '4M' has a prefix but no unit, and a simulator would read M as milli: write 4m for metres or 4mm for millimetres\n"
         "line a x -> y coax inner=1mm outer=3mm er=2 length=4M\n"
         "                                                   ^~\n");
 }
 
-TEST_CASE("a conflict of length and delay quotes the values as written", "[review]") {
+TEST_CASE("a conflict of length and delay quotes the values as written", "[models]") {
   CHECK(diagnose("line a x -> y coax inner=1mm outer=3mm er=2 length=3m delay=1ns\ndrive x step 0V to 1V rise=1ns\nload y open\n") ==
         "bad.rungs:1:61: error: length=3m and delay=1ns imply 10.01c, but this coax line carries 0.7071c; give only one of length= and delay=\n"
         "line a x -> y coax inner=1mm outer=3mm er=2 length=3m delay=1ns\n"
         "                                                            ^~~\n");
 }
 
-TEST_CASE("a dc drive of zero volts has no swing", "[review]") {
+TEST_CASE("a dc drive of zero volts has no swing", "[drive]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=1ns\nload y open\ndrive x dc 0V rise=1ns\n") ==
         "bad.rungs:3:12: error: a dc drive of 0V has no swing; give a level other than 0V\n"
         "drive x dc 0V rise=1ns\n"
         "           ^~\n");
 }
 
-TEST_CASE("a dc drive given two levels points to step", "[review]") {
+TEST_CASE("a dc drive given two levels points to step", "[drive]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=1ns\nload y open\ndrive x dc 1V to 2V rise=1ns\n") ==
         "bad.rungs:3:15: error: a dc drive takes one level; for a change between two levels write step LOW to HIGH\n"
         "drive x dc 1V to 2V rise=1ns\n"
         "              ^~\n");
 }
 
-TEST_CASE("a step with its first level missing", "[review]") {
+TEST_CASE("a step with its first level missing", "[drive]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=1ns\nload y open\ndrive x step to 1V rise=1ns\n") ==
         "bad.rungs:3:14: error: expected a voltage such as 0V, found 'to'\n"
         "drive x step to 1V rise=1ns\n"
         "             ^~\n");
 }
 
-TEST_CASE("a number beyond the range of a double", "[review]") {
+TEST_CASE("a number beyond the range of a double", "[units]") {
   CHECK(diagnose("line a x -> y ideal z0=1e400ohm delay=1ns\nload y open\ndrive x step 0V to 1V rise=1ns\n") ==
         "bad.rungs:1:24: error: '1e400ohm' is out of range\n"
         "line a x -> y ideal z0=1e400ohm delay=1ns\n"
         "                       ^~~~~~~~\n");
 }
 
-TEST_CASE("a section count too large to be meant", "[review]") {
+TEST_CASE("a section count too large to be meant", "[units]") {
   CHECK(diagnose("line a x -> y ideal z0=50ohm delay=1ns sections=99999999999\nload y open\ndrive x step 0V to 1V rise=1ns\n") ==
         "bad.rungs:1:49: error: '99999999999' is too large\n"
         "line a x -> y ideal z0=50ohm delay=1ns sections=99999999999\n"
         "                                                ^~~~~~~~~~~\n");
 }
 
-TEST_CASE("a name with a letter outside ASCII", "[review]") {
+TEST_CASE("a name with a letter outside ASCII", "[syntax]") {
   CHECK(diagnose("line aé x -> y ideal z0=50ohm delay=1ns\n") ==
         "bad.rungs:1:7: error: names use ASCII letters, digits and _ only, found 'é'\n"
         "line aé x -> y ideal z0=50ohm delay=1ns\n"
         "      ^\n");
 }
 
-TEST_CASE("old Mac line ends (CR alone) still give the right line", "[review]") {
+TEST_CASE("old Mac line ends (CR alone) still give the right line", "[file]") {
   CHECK(diagnose("load y open\rline a x -> y ideal z0=50 delay=1ns\rdrive x step 0V to 1V rise=1ns\r") ==
         "bad.rungs:2:24: error: '50' needs a unit: write 50ohm for a resistance\n"
         "line a x -> y ideal z0=50 delay=1ns\n"
         "                       ^~\n");
 }
 
-TEST_CASE("a syntax error does not make its neighbours look unconnected", "[review]") {
+TEST_CASE("a syntax error does not make its neighbours look unconnected", "[topology]") {
   CHECK(diagnose("line a x -> y coax inner=1mm outer=3mm er=2 length=1m\nload y 50ohm 4pF\ndrive x step 0V to 1V rise=1ns\n") ==
         "bad.rungs:2:14: error: expected '+' (series) or '||' (parallel) between load values, found '4pF'\n"
         "load y 50ohm 4pF\n"

@@ -199,15 +199,37 @@ Emitted emit_case(const GoldenCase& c) {
   return {r.exit_code, r.err, r.out, read_file(report)};
 }
 
+/// The examples whose verified plans take longest (about 20 s and 10 s of CPU time). Their
+/// golden files have a test of their own, tagged [slow], so that the quick loop (ctest -L
+/// fast) still compares every other golden file.
+bool slow_to_plan(const GoldenCase& c) {
+  return c.input == "examples/bench_pulse_line.rungs" || c.input == "examples/clock_fanout.rungs";
+}
+
+/// Emits a case as `rungs emit` does by default (the verified planner) and compares the deck
+/// and the report with their golden files.
+void check_golden_case(const GoldenCase& c) {
+  INFO("rungs emit " << c.input << c.flags());
+  const Emitted e = emit_case(c);
+  CHECK(e.exit_code == 0);
+  CHECK(e.err.empty());  // neither warnings nor errors in any golden design
+  check_golden(c.deck_golden(), e.deck);
+  if (!c.report_golden().empty()) check_golden(c.report_golden(), e.report);
+}
+
 TEST_CASE("emitted decks and reports equal the golden files", "[golden]") {
+  for (const GoldenCase& c : golden_cases())
+    if (!slow_to_plan(c)) check_golden_case(c);
+}
+
+TEST_CASE("the examples slowest to plan emit their golden files", "[golden][slow]") {
+  int checked = 0;
   for (const GoldenCase& c : golden_cases()) {
-    INFO("rungs emit " << c.input << c.flags());
-    const Emitted e = emit_case(c);
-    CHECK(e.exit_code == 0);
-    CHECK(e.err.empty());  // neither warnings nor errors in any golden design
-    check_golden(c.deck_golden(), e.deck);
-    if (!c.report_golden().empty()) check_golden(c.report_golden(), e.report);
+    if (!slow_to_plan(c)) continue;
+    check_golden_case(c);
+    ++checked;
   }
+  CHECK(checked == 2);  // both are still examples
 }
 
 TEST_CASE("every golden file belongs to a case, and every example has one", "[golden]") {
@@ -227,6 +249,9 @@ TEST_CASE("every golden file belongs to a case, and every example has one", "[go
 // ---- the same bytes -----------------------------------------------------------------------
 
 TEST_CASE("two runs write the same bytes, to a file as to standard output", "[determinism]") {
+  // With the analytic plan: that the verified planner gives the same plan on every run is
+  // shown by the golden files, which the emits above, the locale runs and the in-process
+  // stages below all meet. What is left to show is the writing.
   for (const GoldenCase& c : golden_cases()) {
     INFO("rungs emit " << c.input << c.flags());
     TempDir dir;
@@ -234,10 +259,11 @@ TEST_CASE("two runs write the same bytes, to a file as to standard output", "[de
     std::vector<std::string> decks;
     for (int run = 0; run < 2; ++run) {
       const fs::path out = dir.path / ("run" + std::to_string(run) + ".cir");
-      REQUIRE(run_rungs("emit " + c.input + c.flags() + " -q -o " + out.string()).exit_code == 0);
+      REQUIRE(run_rungs("emit --analytic " + c.input + c.flags() + " -q -o " + out.string())
+                  .exit_code == 0);
       decks.push_back(read_file(out));
     }
-    const auto to_stdout = run_rungs("emit " + c.input + c.flags() + " -q");
+    const auto to_stdout = run_rungs("emit --analytic " + c.input + c.flags() + " -q");
     CHECK(to_stdout.exit_code == 0);
     CHECK(decks[0].size() > 500);
     CHECK(first_difference(decks[0], decks[1]) == "");
@@ -281,7 +307,7 @@ std::string comma_locale() {
   return "";
 }
 
-TEST_CASE("the binary writes the same bytes under a decimal-comma locale", "[determinism]") {
+TEST_CASE("the binary writes the same bytes under a decimal-comma locale", "[determinism][slow]") {
   const std::string locale = comma_locale();
   if (locale.empty()) {
     WARN(
@@ -332,7 +358,8 @@ Emitted emit_in_process(const GoldenCase& c) {
           rungs::report::plan_text(circuit, plan, peak, file.name, &verification)};
 }
 
-TEST_CASE("the stages write the same bytes with a decimal-comma global locale", "[determinism]") {
+TEST_CASE("the stages write the same bytes with a decimal-comma global locale",
+          "[determinism][slow]") {
   const std::string name = comma_locale();
   // A named locale also sets the C library's locale (printf, strtod); the fallback changes
   // the C++ streams only.
@@ -373,14 +400,20 @@ const char* kOther =
     "drive p step 0V to 5V rise=1ns source=75ohm\n"
     "load q 75ohm\n";
 
+/// `rungs emit - --analytic ARGS` on `text`. What is under test here is how decks are
+/// written, not the planner, so the analytic plan serves.
+rungs::testing::CommandResult emit_text(const std::string& args, const std::string& text) {
+  return run_rungs("emit - --analytic " + args, text);
+}
+
 std::string deck_of(const std::string& text, const std::string& flags = "") {
-  const auto r = run_rungs("emit - -q" + flags, text);
+  const auto r = emit_text("-q" + flags, text);
   REQUIRE(r.exit_code == 0);
   return r.out;
 }
 
 TEST_CASE("a deck goes to standard output with -o - or no -o", "[cli]") {
-  const auto dash = run_rungs("emit - -o -", kSmall);
+  const auto dash = emit_text("-o -", kSmall);
   CHECK(dash.exit_code == 0);
   CHECK(dash.out.rfind(std::string("* generated by rungs ") + RUNGS_VERSION +
                            " from <stdin>; do not edit, regenerate it\n",
@@ -390,10 +423,10 @@ TEST_CASE("a deck goes to standard output with -o - or no -o", "[cli]") {
   // The summary goes to standard error, never into the deck.
   CHECK(dash.err.rfind("rungs: design: 1 line, ", 0) == 0);
   CHECK(dash.out.find("rungs: design") == std::string::npos);
-  const auto plain = run_rungs("emit -", kSmall);
+  const auto plain = emit_text("", kSmall);
   CHECK(plain.exit_code == 0);
   CHECK(plain.out == dash.out);
-  const auto quiet = run_rungs("emit - -q", kSmall);
+  const auto quiet = emit_text("-q", kSmall);
   CHECK(quiet.err.empty());
   CHECK(quiet.out == dash.out);
 }
@@ -401,7 +434,7 @@ TEST_CASE("a deck goes to standard output with -o - or no -o", "[cli]") {
 TEST_CASE("a deck file is complete and nothing is left beside it", "[cli]") {
   TempDir dir;
   const fs::path deck = dir.path / "deck.cir";
-  const auto r = run_rungs("emit - -q -o " + deck.string(), kSmall);
+  const auto r = emit_text("-q -o " + deck.string(), kSmall);
   CHECK(r.exit_code == 0);
   CHECK(r.out.empty());
   CHECK(read_file(deck) == deck_of(kSmall));
@@ -425,12 +458,13 @@ TEST_CASE("while a deck is replaced, a reader sees the old one or the new one wh
   const fs::path deck = dir.path / "deck.cir";
   const fs::path input = dir.path / "many.rungs";
   write_file(input, many_lines(400, 1000));  // 800 400 elements, about 16 MB of deck
-  REQUIRE(run_rungs("emit - -q -o " + deck.string(), kSmall).exit_code == 0);
+  REQUIRE(emit_text("-q -o " + deck.string(), kSmall).exit_code == 0);
   const std::string old_deck = read_file(deck);
 
   const std::string binary = RUNGS_BINARY, out = deck.string(), in = input.string();
   std::vector<char*> argv = {const_cast<char*>(binary.c_str()),
                              const_cast<char*>("emit"),
+                             const_cast<char*>("--analytic"),
                              const_cast<char*>(in.c_str()),
                              const_cast<char*>("-q"),
                              const_cast<char*>("-o"),
@@ -450,7 +484,9 @@ TEST_CASE("while a deck is replaced, a reader sees the old one or the new one wh
   const std::string new_deck = read_file(deck);
   CHECK(new_deck.size() > 10u * 1000 * 1000);
   CHECK(new_deck.substr(new_deck.size() - 5) == ".end\n");
-  CHECK(reads > 10);  // the reader really ran beside the writer
+  // How often the reader got in beside the writer is up to the scheduler, so it decides
+  // nothing; a run where it hardly did says so.
+  if (reads <= 10) WARN("the reader ran only " << reads << " times while the deck was written");
   for (const std::string& text : seen) CHECK(text == new_deck);
   CHECK(dir.entries() == std::set<std::string>{"deck.cir", "many.rungs"});
 }
@@ -460,7 +496,7 @@ TEST_CASE("a file rungs did not write is replaced only with --force", "[cli]") {
   const fs::path deck = dir.path / "deck.cir";
   const std::string own = "* my hand-made deck\nR1 a 0 50\n.end\n";
   write_file(deck, own);
-  const auto refused = run_rungs("emit - -o " + deck.string(), kSmall);
+  const auto refused = emit_text("-o " + deck.string(), kSmall);
   CHECK(refused.exit_code == 2);
   CHECK(refused.out.empty());
   CHECK(refused.err == "rungs: '" + deck.string() +
@@ -469,7 +505,7 @@ TEST_CASE("a file rungs did not write is replaced only with --force", "[cli]") {
   CHECK(read_file(deck) == own);
   CHECK(dir.entries() == std::set<std::string>{"deck.cir"});
 
-  const auto forced = run_rungs("emit - -q --force -o " + deck.string(), kSmall);
+  const auto forced = emit_text("-q --force -o " + deck.string(), kSmall);
   CHECK(forced.exit_code == 0);
   CHECK(read_file(deck) == deck_of(kSmall));
   CHECK(dir.entries() == std::set<std::string>{"deck.cir"});
@@ -478,14 +514,14 @@ TEST_CASE("a file rungs did not write is replaced only with --force", "[cli]") {
 TEST_CASE("a file rungs wrote, by this version or another, is replaced", "[cli]") {
   TempDir dir;
   const fs::path deck = dir.path / "deck.cir";
-  REQUIRE(run_rungs("emit - -q -o " + deck.string(), kSmall).exit_code == 0);
-  const auto again = run_rungs("emit - -q -o " + deck.string(), kOther);
+  REQUIRE(emit_text("-q -o " + deck.string(), kSmall).exit_code == 0);
+  const auto again = emit_text("-q -o " + deck.string(), kOther);
   CHECK(again.exit_code == 0);
   CHECK(again.err.empty());
   CHECK(read_file(deck) == deck_of(kOther));
 
   write_file(deck, "* generated by rungs 0.0.1 from old.rungs; do not edit, regenerate it\n.end\n");
-  CHECK(run_rungs("emit - -q -o " + deck.string(), kSmall).exit_code == 0);
+  CHECK(emit_text("-q -o " + deck.string(), kSmall).exit_code == 0);
   CHECK(read_file(deck) == deck_of(kSmall));
   CHECK(dir.entries() == std::set<std::string>{"deck.cir"});
 }
@@ -536,7 +572,7 @@ TEST_CASE("the option --with-ideal adds the simulator's ideal line beside each l
 }
 
 TEST_CASE("a template folder (--templates) replaces the deck's fixed parts", "[cli]") {
-  // The issue's own check: a changed template changes the output, and only where it is used.
+  // A changed template changes the output, and only where it is used.
   TempDir dir;
   const std::string analysis = read_file(kSource / "templates" / "analysis.tmpl");
   const std::size_t tran = analysis.find(".tran ");
@@ -547,7 +583,7 @@ TEST_CASE("a template folder (--templates) replaces the deck's fixed parts", "[c
   write_file(dir.path / "header.tmpl", "* {{design}} for the bench rig: {{lines}}\n");
 
   const std::string plain = deck_of(kSmall);
-  const auto r = run_rungs("emit - -q --templates " + dir.path.string(), kSmall);
+  const auto r = emit_text("-q --templates " + dir.path.string(), kSmall);
   CHECK(r.exit_code == 0);
   CHECK(r.err.empty());
   const std::string& deck = r.out;
@@ -572,8 +608,7 @@ TEST_CASE("a template that does not fill is an error and nothing is written", "[
   write_file(templates / "line_begin.tmpl",
              "* line {{name}}, {{impedance}} ohm\n.subckt {{subckt}} near far ref\n");
   const fs::path deck = dir.path / "deck.cir";
-  const auto r =
-      run_rungs("emit - -o " + deck.string() + " --templates " + templates.string(), kSmall);
+  const auto r = emit_text("-o " + deck.string() + " --templates " + templates.string(), kSmall);
   CHECK(r.exit_code == 2);
   CHECK(r.out.empty());
   CHECK(r.err ==
@@ -582,9 +617,9 @@ TEST_CASE("a template that does not fill is an error and nothing is written", "[
   CHECK(dir.entries() == std::set<std::string>{"templates"});
 
   // A deck already there stays as it was.
-  REQUIRE(run_rungs("emit - -q -o " + deck.string(), kOther).exit_code == 0);
+  REQUIRE(emit_text("-q -o " + deck.string(), kOther).exit_code == 0);
   const auto again =
-      run_rungs("emit - -o " + deck.string() + " --templates " + templates.string(), kSmall);
+      emit_text("-o " + deck.string() + " --templates " + templates.string(), kSmall);
   CHECK(again.exit_code == 2);
   CHECK(read_file(deck) == deck_of(kOther));
   CHECK(dir.entries() == std::set<std::string>{"deck.cir", "templates"});
@@ -593,13 +628,13 @@ TEST_CASE("a template that does not fill is an error and nothing is written", "[
 TEST_CASE("a template folder with a misnamed part, or no folder, is an error", "[cli]") {
   TempDir dir;
   write_file(dir.path / "headr.tmpl", "* {{design}}\n");
-  const auto misnamed = run_rungs("emit - -q --templates " + dir.path.string(), kSmall);
+  const auto misnamed = emit_text("-q --templates " + dir.path.string(), kSmall);
   CHECK(misnamed.exit_code == 2);
   CHECK(misnamed.out.empty());
   CHECK(misnamed.err == "rungs: " + (dir.path / "headr.tmpl").string() +
                             ": no deck part is called 'headr'; did you mean 'header'?\n");
   const std::string file = (dir.path / "headr.tmpl").string();
-  const auto not_folder = run_rungs("emit - -q --templates " + file, kSmall);
+  const auto not_folder = emit_text("-q --templates " + file, kSmall);
   CHECK(not_folder.exit_code == 2);
   CHECK(not_folder.err == "rungs: --templates '" + file + "' is not a folder\n");
 }
@@ -610,14 +645,14 @@ TEST_CASE("the reports (--report, --report-json) are written beside the deck", "
   write_file(input, kSmall);
   const fs::path deck = dir.path / "small.cir", text = dir.path / "small.txt",
                  json = dir.path / "small.json";
-  const auto r = run_rungs("emit " + input.string() + " -q -o " + deck.string() + " --report " +
-                           text.string() + " --report-json " + json.string());
+  const auto r = run_rungs("emit --analytic " + input.string() + " -q -o " + deck.string() +
+                           " --report " + text.string() + " --report-json " + json.string());
   CHECK(r.exit_code == 0);
   CHECK(dir.entries() ==
         std::set<std::string>{"small.rungs", "small.cir", "small.txt", "small.json"});
   // The reports are what `rungs plan` prints.
-  const auto plan_text = run_rungs("plan " + input.string());
-  const auto plan_json = run_rungs("plan --json " + input.string());
+  const auto plan_text = run_rungs("plan --analytic " + input.string());
+  const auto plan_json = run_rungs("plan --analytic --json " + input.string());
   CHECK(plan_text.exit_code == 0);
   CHECK(plan_json.exit_code == 0);
   CHECK(read_file(text) == plan_text.out);
@@ -633,14 +668,14 @@ TEST_CASE("bad input writes nothing and exits 2", "[cli]") {
                               (dir.path / "r.txt").string() + " --report-json " +
                               (dir.path / "r.json").string();
   SECTION("a syntax error") {
-    const auto r = run_rungs("emit -" + outputs, "line a -> b coax\n");
+    const auto r = emit_text(outputs, "line a -> b coax\n");
     CHECK(r.exit_code == 2);
     CHECK(r.out.empty());
     CHECK(r.err.rfind("<stdin>:1:8: error:", 0) == 0);
     CHECK(r.err.find("<stdin>: 1 error; nothing written\n") != std::string::npos);
   }
   SECTION("a design the planner cannot plan: no edge reaches the line") {
-    const auto r = run_rungs("emit -" + outputs, "line t a -> b ideal z0=50ohm delay=1ns\n");
+    const auto r = emit_text(outputs, "line t a -> b ideal z0=50ohm delay=1ns\n");
     CHECK(r.exit_code == 2);
     CHECK(r.err.find("error: no drive reaches line 't'") != std::string::npos);
     CHECK(r.err.find("<stdin>: 1 error; nothing written\n") != std::string::npos);
@@ -651,9 +686,9 @@ TEST_CASE("bad input writes nothing and exits 2", "[cli]") {
 TEST_CASE("bad input leaves a deck already there as it was", "[cli]") {
   TempDir dir;
   const fs::path deck = dir.path / "deck.cir";
-  REQUIRE(run_rungs("emit - -q -o " + deck.string(), kSmall).exit_code == 0);
+  REQUIRE(emit_text("-q -o " + deck.string(), kSmall).exit_code == 0);
   const std::string before = read_file(deck);
-  CHECK(run_rungs("emit - -o " + deck.string(), "line a -> b coax\n").exit_code == 2);
+  CHECK(emit_text("-o " + deck.string(), "line a -> b coax\n").exit_code == 2);
   CHECK(read_file(deck) == before);
   CHECK(dir.entries() == std::set<std::string>{"deck.cir"});
 }
@@ -661,7 +696,7 @@ TEST_CASE("bad input leaves a deck already there as it was", "[cli]") {
 TEST_CASE("a deck that cannot be written is exit code 3", "[cli]") {
   TempDir dir;
   const fs::path deck = dir.path / "no_such_folder" / "deck.cir";
-  const auto r = run_rungs("emit - -q -o " + deck.string(), kSmall);
+  const auto r = emit_text("-q -o " + deck.string(), kSmall);
   CHECK(r.exit_code == 3);
   CHECK(r.err.rfind("rungs: cannot write '" + (dir.path / "no_such_folder").string(), 0) == 0);
   CHECK(dir.entries().empty());

@@ -20,6 +20,8 @@
 #include <string>
 #include <vector>
 
+#include "circuit_builders.h"
+
 #include "6_emit/deck.h"
 #include "6_emit/ladder.h"
 #include "6_emit/names.h"
@@ -428,8 +430,7 @@ std::string deck_of(const std::string& text, emit::DeckOptions options = {}) {
   const model::Circuit circuit = model::resolve(description, diagnostics);
   INFO(diagnostics.render());
   REQUIRE_FALSE(diagnostics.has_errors());
-  plan::Plan plan = plan::plan_circuit(circuit, diagnostics);
-  REQUIRE_FALSE(diagnostics.has_errors());
+  plan::Plan plan = rungs::testing::analytic_plan(circuit);
   plan::set_closing_voltages(circuit, plan);  // as prepare_netlist does
   std::ostringstream out;
   const std::string error =
@@ -681,8 +682,8 @@ TEST_CASE("write_deck reports a template that does not fill") {
                                 "drive a step 0V to 1V rise=100ps\nload b 50ohm\n"};
   syntax::Diagnostics diagnostics(file);
   const auto circuit = model::resolve(syntax::parse_description(diagnostics), diagnostics);
-  const auto plan = plan::plan_circuit(circuit, diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
+  const auto plan = rungs::testing::analytic_plan(circuit);
   std::ostringstream out;
   const std::string error = emit::write_deck(out, circuit, plan, {file.name, "0"}, bad, {});
   CHECK(error.rfind("template line_begin: unknown placeholder {{impedance}}; it knows ", 0) == 0);

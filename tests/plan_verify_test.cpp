@@ -47,8 +47,8 @@ Line line(const std::string& name, const std::string& near, const std::string& f
 
 }  // namespace
 
-TEST_CASE("the verified planner finds issue 4's background counts and one less fails") {
-  // Issue 4, Background (measured outside the project): pi sections, a linear-ramp edge, a
+TEST_CASE("the verified planner finds the counts measured outside the project, one less fails") {
+  // Measured outside the project: pi sections, a linear-ramp edge, a
   // matched source and an open end need 12 sections at delay/rise 1 and 37 at delay/rise 2
   // for a 2 % budget. The planner counts a ladder adequate when its error plus the measure's
   // own accuracy is within the budget.
@@ -84,7 +84,7 @@ TEST_CASE("the verified planner finds issue 4's background counts and one less f
     // The search also looks two below its answer (the error need not fall monotonically).
     fewer.lines[0].sections = k.expected - 2;
     CHECK_FALSE(verify_plan(c, fewer).lines[0].adequate);
-    // The common rule (a tenth of the rise per section; issue 4) gives 10 and 20 here, both
+    // The common rule (a tenth of the rise per section; practice) gives 10 and 20 here, both
     // short of the budget.
     CHECK(plan.lines[0].rule_sections == static_cast<int>(10 * k.ratio));
     CHECK(verdict.lines[0].rule_error > 0.02);
@@ -92,7 +92,7 @@ TEST_CASE("the verified planner finds issue 4's background counts and one less f
 }
 
 TEST_CASE("sections= is verified, not changed") {
-  // 5 sections at delay/rise 1 fall well short of the 12 that issue 4's background needs.
+  // 5 sections at delay/rise 1 fall well short of the 12 measured outside the project.
   Circuit c;
   c.lines.push_back(line("l", "a", "b", 50.0, 1e-9));
   c.lines[0].sections = 5;

@@ -230,8 +230,9 @@ TEST_CASE("the delay is measured on the first edge of a stepped waveform") {
   CHECK_THAT(w.error, WithinAbs(0.03, 1e-9));  // 30 ps at 1 V/ns on the second step
 }
 
-TEST_CASE("the section counts of issue 4's background meet the 2 % budget and one less does not") {
-  // Issue 4, Background (measured outside the project): pi sections, a linear-ramp edge, a
+TEST_CASE(
+    "the section counts measured outside the project meet the 2 % budget, one less does not") {
+  // Measured outside the project: pi sections, a linear-ramp edge, a
   // matched source and an open end need 12 sections at delay/rise 1 and 37 at delay/rise 2
   // for a 2 % budget. At delay/rise 2, 36 sections err within 0.02 % of the budget, closer than
   // this check resolves; 35 lie clear of it.
@@ -290,8 +291,8 @@ TEST_CASE("the ladder error falls toward zero as N^(-2/3), the rate behind (dela
   // a = T tau^2 / 24 from theta = 2 asin(w tau / 2) (DESIGN.md, Physics). That cubic term
   // spreads a corner of the edge over the Airy time (3a)^(1/3), proportional to T N^(-2/3),
   // so the error at a corner falls as N^(-2/3) (calc); at a fixed error N then grows as
-  // (delay/rise)^1.5, the growth issue 4's background reports. Quadrupling N divides the error
-  // by 4^(2/3) = 2.52.
+  // (delay/rise)^1.5, the growth the counts measured outside the project show. Quadrupling N
+  // divides the error by 4^(2/3) = 2.52.
   for (std::size_t k = 1; k < errors.size(); ++k)
     CHECK_THAT(errors[k - 1] / errors[k],
                Catch::Matchers::WithinRel(std::pow(4.0, 2.0 / 3.0), 0.15));

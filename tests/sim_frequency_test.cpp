@@ -99,7 +99,7 @@ double largest_difference(const Waveforms& frequency, const Waveforms& character
 }
 
 /// Runs both references over `window` and checks they agree within 0.2 % of `swing`, the
-/// accuracy issue 4 asks of the reference, and that the frequency reference's own estimate
+/// accuracy asked of the reference here, and that the frequency reference's own estimate
 /// is met.
 void check_against_characteristics(const Circuit& c, double window, double swing) {
   const Response r = exact_reference(c, options(window));
