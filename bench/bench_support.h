@@ -24,7 +24,7 @@ namespace fs = std::filesystem;
 /// A description read, resolved and planned (analytically), as `rungs plan` does before it
 /// verifies anything.
 struct Planned {
-  syntax::SourceFile file;
+  syntax::InputFile file;
   model::Circuit circuit;
   plan::Plan plan;
 };

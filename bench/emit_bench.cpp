@@ -17,7 +17,7 @@
 #include <unistd.h>
 
 #include "bench_support.h"
-#include "6_emit/deck.h"
+#include "6_emit/netlist.h"
 #include "6_emit/sha256.h"
 #include "6_emit/templates.h"
 #include "5_plan/plan.h"
@@ -62,18 +62,18 @@ const Planned& planned(int sections) {
   return *current;
 }
 
-/// write_deck into a file, after parsing, resolving and planning outside the timing.
-void BM_write_deck(benchmark::State& state) {
+/// write_netlist into a file, after parsing, resolving and planning outside the timing.
+void BM_write_netlist(benchmark::State& state) {
   const Planned& p = planned(sections_for(state.range(0)));
   const std::string hash = rungs::emit::sha256_hex(p.file.text);
   const fs::path out = scratch() / "in_process.cir";
   std::uintmax_t bytes = 0;
   for (auto _ : state) {
     std::ofstream file(out, std::ios::binary | std::ios::trunc);
-    const std::string error = rungs::emit::write_deck(file, p.circuit, p.plan, {p.file.name, hash},
+    const std::string error = rungs::emit::write_netlist(file, p.circuit, p.plan, {p.file.name, hash},
                                                       rungs::emit::builtin_templates(), {});
     file.close();
-    if (!error.empty() || !file) state.SkipWithError("write_deck failed");
+    if (!error.empty() || !file) state.SkipWithError("write_netlist failed");
     bytes = fs::file_size(out);
   }
   const double elements = static_cast<double>(p.plan.elements);
@@ -133,7 +133,7 @@ void BM_rungs_emit(benchmark::State& state) {
   state.counters["peak_rss_MiB"] = child_peak;  // of the rungs process alone
 }
 
-BENCHMARK(BM_write_deck)
+BENCHMARK(BM_write_netlist)
     ->Arg(100000)
     ->Arg(1000000)
     ->Arg(4000000)

@@ -9,7 +9,7 @@
 #include "3_model/circuit.h"
 #include "5_plan/plan.h"
 #include "1_syntax/diagnostics.h"
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 
 namespace rungs::testing {
 
@@ -70,7 +70,7 @@ inline model::Load load(const std::string& node, model::LoadNetwork network) {
 /// The analytic plan of `c`, as rungs plan --analytic makes it; a test fails if it errs (as
 /// it does when c's edges were not derived: model::derive_edges).
 inline plan::Plan analytic_plan(const model::Circuit& c) {
-  const syntax::SourceFile file{"test.rungs", ""};
+  const syntax::InputFile file{"test.rungs", ""};
   syntax::Diagnostics diagnostics(file);
   plan::Plan p = plan::plan_circuit(c, diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());

@@ -14,10 +14,10 @@
 #include "8_project/depfile.h"
 
 namespace fs = std::filesystem;
-using rungs::build::depfile_can_name;
-using rungs::build::depfile_problem;
-using rungs::build::escape_make_path;
-using rungs::build::make_depfile;
+using rungs::project::depfile_can_name;
+using rungs::project::depfile_problem;
+using rungs::project::escape_make_path;
+using rungs::project::make_depfile;
 
 // The escapes are those GCC's dependency writer uses (libcpp/mkdeps.cc, munge(); recalled
 // from memory of GCC 12's source): space and tab get a backslash, with the backslashes

@@ -10,13 +10,13 @@
 #include "3_model/resolve.h"
 #include "1_syntax/diagnostics.h"
 #include "1_syntax/parser.h"
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 
 namespace {
 
 /// Parses and resolves `text` as the file bad.rungs; returns every diagnostic as rendered.
 std::string diagnose(std::string text) {
-  const rungs::syntax::SourceFile file{"bad.rungs", std::move(text)};
+  const rungs::syntax::InputFile file{"bad.rungs", std::move(text)};
   rungs::syntax::Diagnostics diagnostics(file);
   const auto description = rungs::syntax::parse_description(diagnostics);
   (void)rungs::model::resolve(description, diagnostics);

@@ -32,7 +32,7 @@
 #include <sys/wait.h>
 #include <unistd.h>
 
-#include "6_emit/deck.h"
+#include "6_emit/netlist.h"
 #include "6_emit/sha256.h"
 #include "6_emit/spice_number.h"
 #include "6_emit/templates.h"
@@ -340,7 +340,7 @@ struct CommaPunctuation : std::numpunct<char> {
 /// The deck and report of a case made in this process, the way `rungs emit` makes them.
 Emitted emit_in_process(const GoldenCase& c) {
   namespace syntax = rungs::syntax;
-  const syntax::SourceFile file{c.input, read_file(kSource / c.input)};
+  const syntax::InputFile file{c.input, read_file(kSource / c.input)};
   syntax::Diagnostics diagnostics(file);
   const auto circuit = rungs::model::resolve(syntax::parse_description(diagnostics), diagnostics);
   REQUIRE_FALSE(diagnostics.has_errors());
@@ -349,7 +349,7 @@ Emitted emit_in_process(const GoldenCase& c) {
   // The verified planner, as rungs emit plans by default.
   const auto [plan, verification] = rungs::plan::plan_verified(circuit, analytic);
   std::ostringstream deck;
-  const std::string error = rungs::emit::write_deck(
+  const std::string error = rungs::emit::write_netlist(
       deck, circuit, plan, {file.name, rungs::emit::sha256_hex(file.text)},
       rungs::emit::builtin_templates(), {c.option == "library", c.option == "with-ideal"});
   REQUIRE(error.empty());

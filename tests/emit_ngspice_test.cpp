@@ -609,7 +609,7 @@ void check_ladder_against_solver(const LadderCase& lc) {
     INFO("deck at a 10x finer step: largest difference "
          << worst_fine / swing * 100 << " % of the swing at " << when_fine << " s");
     // The ladder in the deck is the planned one (plan --json figures, ladder shapes of
-    // src/emit/ladder.h, solved here): at a fine step ngspice agrees within 0.05 %.
+    // src/6_emit/ladder.h, solved here): at a fine step ngspice agrees within 0.05 %.
     CHECK(worst_fine < 5e-4 * swing);
     // The deck as written, at its own step, agrees within 0.5 % of the swing.
     CHECK(worst < 5e-3 * swing);

@@ -22,7 +22,7 @@
 
 #include "circuit_builders.h"
 
-#include "6_emit/deck.h"
+#include "6_emit/netlist.h"
 #include "6_emit/ladder.h"
 #include "6_emit/names.h"
 #include "6_emit/sha256.h"
@@ -423,8 +423,8 @@ TEST_CASE("sanitize_name keeps letters, digits and underscores only") {
 }
 
 /// The deck of a description, made the way `rungs emit` makes it.
-std::string deck_of(const std::string& text, emit::DeckOptions options = {}) {
-  const syntax::SourceFile file{"names.rungs", text};
+std::string deck_of(const std::string& text, emit::NetlistOptions options = {}) {
+  const syntax::InputFile file{"names.rungs", text};
   syntax::Diagnostics diagnostics(file);
   const auto description = syntax::parse_description(diagnostics);
   const model::Circuit circuit = model::resolve(description, diagnostics);
@@ -434,7 +434,7 @@ std::string deck_of(const std::string& text, emit::DeckOptions options = {}) {
   plan::set_closing_voltages(circuit, plan);  // as prepare_netlist does
   std::ostringstream out;
   const std::string error =
-      emit::write_deck(out, circuit, plan, {file.name, emit::sha256_hex(file.text)},
+      emit::write_netlist(out, circuit, plan, {file.name, emit::sha256_hex(file.text)},
                        emit::builtin_templates(), options);
   REQUIRE(error.empty());
   return out.str();
@@ -674,10 +674,10 @@ TEST_CASE("check_templates passes the built-in set and names what is wrong in ot
   CHECK(emit::check_templates(terse) == "");
 }
 
-TEST_CASE("write_deck reports a template that does not fill") {
+TEST_CASE("write_netlist reports a template that does not fill") {
   emit::TemplateSet bad = emit::builtin_templates();
   bad["line_begin"] = ".subckt {{subckt}} near far ref {{impedance}}\n";
-  const syntax::SourceFile file{"t.rungs",
+  const syntax::InputFile file{"t.rungs",
                                 "line t a -> b ideal z0=50ohm delay=1ns\n"
                                 "drive a step 0V to 1V rise=100ps\nload b 50ohm\n"};
   syntax::Diagnostics diagnostics(file);
@@ -685,7 +685,7 @@ TEST_CASE("write_deck reports a template that does not fill") {
   REQUIRE_FALSE(diagnostics.has_errors());
   const auto plan = rungs::testing::analytic_plan(circuit);
   std::ostringstream out;
-  const std::string error = emit::write_deck(out, circuit, plan, {file.name, "0"}, bad, {});
+  const std::string error = emit::write_netlist(out, circuit, plan, {file.name, "0"}, bad, {});
   CHECK(error.rfind("template line_begin: unknown placeholder {{impedance}}; it knows ", 0) == 0);
 }
 

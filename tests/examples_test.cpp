@@ -22,7 +22,7 @@
 #include "1_syntax/ast.h"
 #include "1_syntax/diagnostics.h"
 #include "1_syntax/parser.h"
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 
 using Catch::Matchers::WithinRel;
 namespace fs = std::filesystem;
@@ -55,17 +55,17 @@ std::vector<fs::path> example_files() {
   return files;
 }
 
-syntax::SourceFile read_example(const fs::path& path) {
+syntax::InputFile read_example(const fs::path& path) {
   std::ifstream in(path, std::ios::binary);
   REQUIRE(in);
   std::ostringstream text;
   text << in.rdbuf();
-  return syntax::SourceFile{path.string(), text.str()};
+  return syntax::InputFile{path.string(), text.str()};
 }
 
 /// One example, parsed and resolved, with its diagnostics.
 struct Example {
-  syntax::SourceFile file;
+  syntax::InputFile file;
   ast::Description description;
   model::Circuit circuit;
   std::string rendered;

@@ -35,7 +35,7 @@ std::set<std::string> ebnf_productions() {
 
 ast::Description parse(const std::string& text, std::set<std::string>* trace = nullptr,
                        std::string* rendered = nullptr) {
-  SourceFile file{"t.rungs", text};
+  InputFile file{"t.rungs", text};
   Diagnostics d(file);
   auto description = parse_description(d, trace);
   if (rendered) *rendered = d.render();

@@ -10,25 +10,25 @@
 #include "3_model/resolve.h"
 #include "1_syntax/diagnostics.h"
 #include "1_syntax/parser.h"
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 
-namespace build = rungs::build;
+namespace project = rungs::project;
 namespace syntax = rungs::syntax;
 
 namespace {
 
 /// Parses `text` as the manifest rungs.toml; returns every diagnostic as rendered.
 std::string diagnose(std::string text) {
-  const syntax::SourceFile file{"rungs.toml", std::move(text)};
+  const syntax::InputFile file{"rungs.toml", std::move(text)};
   syntax::Diagnostics diagnostics(file);
-  (void)build::parse_manifest(diagnostics);
+  (void)project::parse_manifest(diagnostics);
   return diagnostics.render();
 }
 
 }  // namespace
 
 TEST_CASE("a full manifest reads as written", "[manifest]") {
-  const syntax::SourceFile file{"rungs.toml",
+  const syntax::InputFile file{"rungs.toml",
                                 "# the bench netlists\n"
                                 "[defaults]\n"
                                 "window = \"40ns\"\n"
@@ -50,7 +50,7 @@ TEST_CASE("a full manifest reads as written", "[manifest]") {
                                 "with_ideal = true\n"
                                 "templates = \"sim/feed_templates\"\n"};
   syntax::Diagnostics diagnostics(file);
-  const build::Manifest manifest = build::parse_manifest(diagnostics);
+  const project::Manifest manifest = project::parse_manifest(diagnostics);
   REQUIRE(diagnostics.render().empty());
   REQUIRE(manifest.defaults.settings.size() == 4);
   // In the order rise, tolerance, shape, window, whatever the order in the file.
@@ -62,19 +62,19 @@ TEST_CASE("a full manifest reads as written", "[manifest]") {
   CHECK(manifest.defaults.settings[3].value == "40ns");
   CHECK(file.slice(manifest.defaults.settings[3].span) == "\"40ns\"");
   REQUIRE(manifest.netlists.size() == 2);
-  const build::NetlistEntry& clock = manifest.netlists[0];
+  const project::NetlistEntry& clock = manifest.netlists[0];
   CHECK(clock.source == "lines/clock.rungs");
   CHECK(clock.output == "sim/clock.cir");
   CHECK(clock.report == "sim/clock.txt");
   CHECK(clock.report_json == "sim/clock.json");
   CHECK_FALSE(clock.library);
   CHECK_FALSE(clock.with_ideal);
-  CHECK(build::templates_of(manifest, clock) == "sim/templates");
-  const build::NetlistEntry& feed = manifest.netlists[1];
+  CHECK(project::templates_of(manifest, clock) == "sim/templates");
+  const project::NetlistEntry& feed = manifest.netlists[1];
   CHECK(feed.library);
   CHECK(feed.with_ideal);
   CHECK(feed.report.empty());
-  CHECK(build::templates_of(manifest, feed) == "sim/feed_templates");
+  CHECK(project::templates_of(manifest, feed) == "sim/feed_templates");
   CHECK(file.slice(feed.source_span) == "\"lines/feed.rungs\"");
   CHECK(file.slice(feed.span) == "[[netlist]]");
 }
@@ -268,14 +268,14 @@ TEST_CASE("columns count characters, not bytes, after non-ASCII text", "[manifes
 }
 
 TEST_CASE("defaults apply where a description does not set them itself", "[manifest]") {
-  const syntax::SourceFile file{"d.rungs",
+  const syntax::InputFile file{"d.rungs",
                                 "set tolerance 5%\n"
                                 "line t a -> b ideal z0=50ohm delay=1ns\n"
                                 "load b 50ohm\n"
                                 "drive a step 0V to 1V source=50ohm\n"};
   syntax::Diagnostics diagnostics(file);
   auto description = syntax::parse_description(diagnostics);
-  build::apply_defaults(description,
+  project::apply_defaults(description,
                         {{"tolerance", "1%", {}}, {"shape", "t", {}}, {"rise", "200ps", {}}});
   const auto circuit = rungs::model::resolve(description, diagnostics);
   CHECK(diagnostics.render().empty());  // the drive has no rise=; the default gives one

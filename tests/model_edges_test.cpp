@@ -96,7 +96,7 @@ TEST_CASE("a line's edge is its own rise, else its part's fastest drive, else se
 }
 
 TEST_CASE("resolve stores the edges of the circuit it makes") {
-  const rungs::syntax::SourceFile file{"edges.rungs",
+  const rungs::syntax::InputFile file{"edges.rungs",
                                        "set rise 1ns\n"
                                        "line near a -> m ideal z0=50ohm delay=1ns\n"
                                        "line far m -> b ideal z0=50ohm delay=1ns\n"

@@ -15,7 +15,7 @@
 #include "4_sim/error_measure.h"
 #include "4_sim/frequency_reference.h"
 #include "1_syntax/diagnostics.h"
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 
 using rungs::model::Circuit;
 using rungs::model::Shape;
@@ -66,11 +66,11 @@ int smallest_adequate(const Circuit& c, const Plan& analytic, int most) {
   const rungs::sim::ReferenceOptions o = rungs::plan::reference_options(analytic);
   rungs::sim::ResponseWorkspace ws;
   const rungs::sim::Response exact = rungs::sim::exact_reference(c, o, &ws);
-  REQUIRE(exact.accuracy.within_target);
+  REQUIRE(exact.error_estimate.within_target);
   for (int n = 1; n <= most; ++n) {
-    const rungs::sim::LadderError e =
+    const rungs::sim::LadderMeasurement e =
         rungs::sim::measure_ladder_error(c, exact, {rungs::sim::LadderSpec{n, Shape::pi}}, o, &ws);
-    if (e.line_errors[0] + e.accuracy <= kBudget) return n;
+    if (e.line_errors[0] + e.error_estimate <= kBudget) return n;
   }
   return 0;
 }

@@ -13,7 +13,7 @@
 #include "4_sim/error_measure.h"
 #include "4_sim/frequency_reference.h"
 #include "1_syntax/diagnostics.h"
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 
 using rungs::model::Circuit;
 using rungs::model::Drive;
@@ -66,11 +66,11 @@ TEST_CASE("the verified planner finds the counts measured outside the project, o
     const auto [plan, verdict] = plan_verified(c, analytic);
     INFO("delay/rise " << k.ratio << ": analytic " << analytic.lines[0].sections << ", verified "
                        << plan.lines[0].sections << " erring " << verdict.lines[0].error
-                       << " +- " << verdict.accuracy);
+                       << " +- " << verdict.error_estimate);
     CHECK(plan.lines[0].sections == k.expected);
     CHECK(verdict.reference_within_target);
     CHECK(verdict.lines[0].adequate);
-    CHECK(verdict.lines[0].error + verdict.accuracy <= 0.02);
+    CHECK(verdict.lines[0].error + verdict.error_estimate <= 0.02);
     // The figures that follow from the count follow the new one (the plan's own formulas).
     CHECK(plan.lines[0].section_l == Approx(50.0 * k.ratio * rise / k.expected));
     CHECK(plan.elements ==
@@ -79,7 +79,7 @@ TEST_CASE("the verified planner finds the counts measured outside the project, o
     Plan fewer = plan;
     fewer.lines[0].sections = k.expected - 1;
     const Verification less = verify_plan(c, fewer);
-    INFO("one less errs " << less.lines[0].error << " +- " << less.accuracy);
+    INFO("one less errs " << less.lines[0].error << " +- " << less.error_estimate);
     CHECK_FALSE(less.lines[0].adequate);
     // The search also looks two below its answer (the error need not fall monotonically).
     fewer.lines[0].sections = k.expected - 2;
@@ -128,7 +128,7 @@ TEST_CASE("a two-line cascade planned together meets the budget at every end") {
   REQUIRE(verdict.lines.size() == 2);
   for (std::size_t k = 0; k < 2; ++k) {
     INFO("line " << k << ": " << plan.lines[k].sections << " sections erring "
-                 << verdict.lines[k].error << " +- " << verdict.accuracy);
+                 << verdict.lines[k].error << " +- " << verdict.error_estimate);
     CHECK(verdict.lines[k].adequate);
   }
   // Measured afresh, every end of the circuit with both ladders in place is within 2 %.
@@ -136,7 +136,7 @@ TEST_CASE("a two-line cascade planned together meets the budget at every end") {
   o.window = plan.window;
   o.target = 0.02 / 20.0;
   const rungs::sim::Response exact = rungs::sim::exact_reference(c, o);
-  const rungs::sim::LadderError e = rungs::sim::measure_ladder_error(
+  const rungs::sim::LadderMeasurement e = rungs::sim::measure_ladder_error(
       c, exact,
       {rungs::sim::LadderSpec{plan.lines[0].sections, Shape::pi},
        rungs::sim::LadderSpec{plan.lines[1].sections, Shape::pi}},
@@ -144,6 +144,6 @@ TEST_CASE("a two-line cascade planned together meets the budget at every end") {
   REQUIRE(e.ends.size() == 4);
   for (const auto& end : e.ends) {
     INFO("end " << end.node << ": " << end.worst.error);
-    CHECK(end.worst.error + e.accuracy <= 0.02);
+    CHECK(end.worst.error + e.error_estimate <= 0.02);
   }
 }

@@ -83,7 +83,7 @@ TEST_CASE("a matched source into a 25 ohm load: Hayt & Buck, Example 10.11") {
       "line l a -> b ideal z0=50ohm delay=1ns\n"
       "drive a step 0V to 10V rise=8ps source=50ohm\n"
       "load b 25ohm\n";
-  rungs::syntax::SourceFile file{"t.rungs", text};
+  rungs::syntax::InputFile file{"t.rungs", text};
   rungs::syntax::Diagnostics d(file);
   const auto description = rungs::syntax::parse_description(d);
   const Circuit circuit = rungs::model::resolve(description, d);

@@ -23,7 +23,7 @@ using rungs::model::Shape;
 using rungs::model::WaveKind;
 using rungs::sim::compare_waveforms;
 using rungs::sim::exact_reference;
-using rungs::sim::LadderError;
+using rungs::sim::LadderMeasurement;
 using rungs::sim::LadderSpec;
 using rungs::sim::measure_ladder_error;
 using rungs::sim::ReferenceOptions;
@@ -73,7 +73,7 @@ ReferenceOptions options(double window, double target) {
 /// The state derivative of an LC ladder driven through `source` ohms by vs(t), with a
 /// resistive far-end load: Kirchhoff's laws for each series branch (L di/dt = drop - R i) and
 /// each shunt node (C dv/dt = currents in - G v). The ladder is built as rungs emits it
-/// (emit/ladder.h): pi = C/2 | L | C | ... | C/2; T = L/2 | C | L ... | C | L/2; L = (L, C) per
+/// (6_emit/ladder.h): pi = C/2 | L | C | ... | C/2; T = L/2 | C | L ... | C | L/2; L = (L, C) per
 /// section. The near node of a T or L ladder has no capacitor, so its source resistance joins
 /// the first series branch; the far node of a T ladder likewise joins the load to the last one.
 struct LadderOde {
@@ -186,7 +186,7 @@ TEST_CASE("ladder waveforms match a direct integration of the ladder's circuit e
     // Both solve the same circuit; the inversion's corners and RK4's (dt w)^4 stay within
     // the reference's budget, 0.2 % of the 1 V swing.
     CHECK(worst < 2e-3);
-    CHECK(ladder.accuracy.estimate() < 1e-3);
+    CHECK(ladder.error_estimate.estimate() < 1e-3);
   }
 }
 
@@ -247,13 +247,13 @@ TEST_CASE(
     const Circuit c = single_line(delay, rise, 50.0);
     const ReferenceOptions o = options(4 * delay + 4 * rise, 5e-4);
     const Response exact = exact_reference(c, o);
-    REQUIRE(exact.accuracy.within_target);
-    const LadderError good = measure_ladder_error(c, exact, {LadderSpec{k.enough, Shape::pi}}, o);
-    const LadderError bad = measure_ladder_error(c, exact, {LadderSpec{k.too_few, Shape::pi}}, o);
+    REQUIRE(exact.error_estimate.within_target);
+    const LadderMeasurement good = measure_ladder_error(c, exact, {LadderSpec{k.enough, Shape::pi}}, o);
+    const LadderMeasurement bad = measure_ladder_error(c, exact, {LadderSpec{k.too_few, Shape::pi}}, o);
     INFO("delay/rise " << k.ratio << ": " << good.error << " at " << k.enough << ", " << bad.error
-                       << " at " << k.too_few << ", accuracy " << good.accuracy);
-    CHECK(good.error + good.accuracy < 0.02);
-    CHECK(bad.error - bad.accuracy > 0.02);
+                       << " at " << k.too_few << ", accuracy " << good.error_estimate);
+    CHECK(good.error + good.error_estimate < 0.02);
+    CHECK(bad.error - bad.error_estimate > 0.02);
     // The open far end sees the larger error (it carries the doubled wave).
     CHECK(good.ends.size() == 2);
     CHECK(good.ends[1].far);
@@ -269,11 +269,11 @@ TEST_CASE("the error measure's own accuracy estimate covers a finer run's answer
   const Response e1 = exact_reference(c, coarse);
   const Response e2 = exact_reference(c, fine);
   for (const int n : {20, 36, 80}) {
-    const LadderError a = measure_ladder_error(c, e1, {LadderSpec{n, Shape::pi}}, coarse);
-    const LadderError b = measure_ladder_error(c, e2, {LadderSpec{n, Shape::pi}}, fine);
-    INFO("n " << n << ": " << a.error << " +- " << a.accuracy << " against " << b.error);
-    CHECK(std::abs(a.error - b.error) < 1.5 * a.accuracy + b.accuracy);
-    CHECK(a.accuracy < 2e-3 * 1.5);
+    const LadderMeasurement a = measure_ladder_error(c, e1, {LadderSpec{n, Shape::pi}}, coarse);
+    const LadderMeasurement b = measure_ladder_error(c, e2, {LadderSpec{n, Shape::pi}}, fine);
+    INFO("n " << n << ": " << a.error << " +- " << a.error_estimate << " against " << b.error);
+    CHECK(std::abs(a.error - b.error) < 1.5 * a.error_estimate + b.error_estimate);
+    CHECK(a.error_estimate < 2e-3 * 1.5);
   }
 }
 
@@ -283,7 +283,7 @@ TEST_CASE("the ladder error falls toward zero as N^(-2/3), the rate behind (dela
   const Response exact = exact_reference(c, o);
   std::vector<double> errors;
   for (const int n : {40, 160, 640}) {
-    const LadderError e = measure_ladder_error(c, exact, {LadderSpec{n, Shape::t}}, o);
+    const LadderMeasurement e = measure_ladder_error(c, exact, {LadderSpec{n, Shape::t}}, o);
     INFO("n " << n << ": " << e.error);
     errors.push_back(e.error);
   }

@@ -103,8 +103,8 @@ double largest_difference(const Waveforms& frequency, const Waveforms& character
 /// is met.
 void check_against_characteristics(const Circuit& c, double window, double swing) {
   const Response r = exact_reference(c, options(window));
-  INFO("frequencies " << r.grid.frequencies << ", estimated error " << r.accuracy.estimate());
-  CHECK(r.accuracy.within_target);
+  INFO("frequencies " << r.grid.frequencies << ", estimated error " << r.error_estimate.estimate());
+  CHECK(r.error_estimate.within_target);
   const Waveforms f = r.total();
   const Waveforms m = simulate_characteristics(c, window, kDt);
   const double difference = largest_difference(f, m) / swing;
@@ -120,7 +120,7 @@ TEST_CASE("the frequency reference follows Hayt & Buck, Example 10.11") {
   c.drives.push_back(step("a", 0.0, 10.0, 50.0, 8e-12));
   c.loads.push_back(load("b", element(ElementKind::resistor, 25.0)));
   const Response r = exact_reference(c, options(4e-9, 2e-4));
-  REQUIRE(r.accuracy.within_target);
+  REQUIRE(r.error_estimate.within_target);
   const Waveforms w = r.total();
   // Hayt & Buck, Engineering Electromagnetics, 8th ed., Example 10.11 (book): V0 = 10 V,
   // Rg = Z0 = 50 ohm, R_L = 25 ohm: V1+ = 5 V at the source until the reflection returns,
@@ -213,8 +213,8 @@ TEST_CASE("a charged line discharging through a switched load agrees with charac
   c.loads.push_back(switched);
   const Response r = exact_reference(c, options(8e-9));
   CHECK(r.initial == InitialState::rest);  // a charged line starts from rest, as under uic
-  CHECK(r.sources.size() == 1);
-  CHECK(r.sources[0].swing == 10.0);
+  CHECK(r.excitations.size() == 1);
+  CHECK(r.excitations[0].swing == 10.0);
   check_against_characteristics(c, 8e-9, 10.0);
 }
 
@@ -238,7 +238,7 @@ TEST_CASE("a switch that closes over a ramp lets the line's end fall along it") 
   ReferenceOptions o = options(30e-9);
   o.closing = {0.0, tau};
   const Response r = exact_reference(c, o);
-  CHECK(r.accuracy.within_target);
+  CHECK(r.error_estimate.within_target);
   REQUIRE(r.switch_voltages.size() == 1);
   CHECK(r.switch_voltages[0] == Approx(10.0).epsilon(1e-3));  // the open voltage at t0
   const auto w = r.total();
@@ -296,8 +296,8 @@ TEST_CASE("a settled start holds each drive's low level as the DC state") {
   CHECK(r.initial == InitialState::settled);
   const Waveforms w = r.total();
   // Within the aliasing bound: the change (1.5 V at the end) recurs damped by e^{-sigma P}.
-  CHECK_THAT(w.nodes[0].v[0], WithinAbs(0.75, 1.5 * r.accuracy.aliasing));
-  CHECK_THAT(w.nodes[1].v[0], WithinAbs(0.75, 1.5 * r.accuracy.aliasing));
+  CHECK_THAT(w.nodes[0].v[0], WithinAbs(0.75, 1.5 * r.error_estimate.aliasing));
+  CHECK_THAT(w.nodes[1].v[0], WithinAbs(0.75, 1.5 * r.error_estimate.aliasing));
   Circuit change = c;
   change.drives[0].low = 0.0;
   change.drives[0].high = 2.0;
@@ -325,8 +325,8 @@ TEST_CASE("a lossy line's DC state divides through its series resistance") {
   c.loads.push_back(load("b", element(ElementKind::resistor, 40.0)));
   const Response r = exact_reference(c, options(40e-9, 1e-3));
   const Waveforms w = r.total();
-  CHECK_THAT(w.nodes[0].v.front(), WithinAbs(0.5, r.accuracy.aliasing));
-  CHECK_THAT(w.nodes[1].v.front(), WithinAbs(0.4, r.accuracy.aliasing));
+  CHECK_THAT(w.nodes[0].v.front(), WithinAbs(0.5, r.error_estimate.aliasing));
+  CHECK_THAT(w.nodes[1].v.front(), WithinAbs(0.4, r.error_estimate.aliasing));
   // After the step to 2 V the circuit settles to twice that (the final value theorem,
   // lim s V(s) as s -> 0, any table of transforms).
   CHECK_THAT(w.nodes[0].v.back(), WithinAbs(1.0, 2e-3));
@@ -349,7 +349,7 @@ TEST_CASE("a distortionless line delivers the delayed edge attenuated by exp(-al
   c.drives.push_back(step("a", 0.0, 1.0, z0, rise, 0.5e-9));
   c.loads.push_back(load("b", element(ElementKind::resistor, z0)));
   const Response r = exact_reference(c, options(6e-9));
-  REQUIRE(r.accuracy.within_target);
+  REQUIRE(r.error_estimate.within_target);
   const Waveforms w = r.total();
   const double alpha = rp / (2.0 * z0) + gp * z0 / 2.0;
   const double ramp = rise / 0.8;
@@ -368,8 +368,8 @@ TEST_CASE("each source's response is the circuit driven by it alone") {
   both.drives.push_back(step("a", 0.0, 1.0, 30.0, 100e-12));
   both.drives.push_back(step("b", 0.0, -2.0, 80.0, 150e-12, 1.3e-9));
   const Response r = exact_reference(both, options(6e-9, 1e-3));
-  REQUIRE(r.sources.size() == 2);
-  CHECK(r.sources[1].swing == -2.0);
+  REQUIRE(r.excitations.size() == 2);
+  CHECK(r.excitations[1].swing == -2.0);
   // Superposition (any circuits text): the second drive alone, the first replaced by its
   // source resistance.
   Circuit alone = both;

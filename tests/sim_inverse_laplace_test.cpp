@@ -99,7 +99,7 @@ TEST_CASE("the drives' transforms invert to the waveforms of drive_voltage") {
     INFO("kind " << static_cast<int>(d.kind) << " period " << d.period.value_or(0.0));
     const KinkedWave wave = drive_change(d, settings);
     const double low = d.kind == WaveKind::dc ? 0.0 : d.low;
-    // The kinks reproduce drive_voltage (sim/characteristics.h) exactly, less the low level.
+    // The kinks reproduce drive_voltage (4_sim/characteristics.h) exactly, less the low level.
     for (double t = 0.0; t < 12e-9; t += 7.3e-12)
       REQUIRE_THAT(wave_value(wave, t) + low,
                    Catch::Matchers::WithinAbs(drive_voltage(d, settings, t), 1e-12));

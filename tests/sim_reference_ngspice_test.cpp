@@ -55,7 +55,7 @@ TEST_CASE("the exact reference matches ngspice's ideal line within 0.2 % of the 
   REQUIRE(run.ok());
   const ng::Waveforms spice = ng::read_raw(dir + "/fine.raw");
 
-  const rungs::syntax::SourceFile file{"r.rungs", kDesign};
+  const rungs::syntax::InputFile file{"r.rungs", kDesign};
   rungs::syntax::Diagnostics diagnostics(file);
   const auto description = rungs::syntax::parse_description(diagnostics);
   const auto circuit = rungs::model::resolve(description, diagnostics);
@@ -64,7 +64,7 @@ TEST_CASE("the exact reference matches ngspice's ideal line within 0.2 % of the 
   options.window = 20e-9;
   options.target = 2e-4;
   const rungs::sim::Response exact = rungs::sim::exact_reference(circuit, options);
-  CHECK(exact.accuracy.within_target);
+  CHECK(exact.error_estimate.within_target);
   const rungs::sim::Waveforms reference = exact.total();
 
   for (const char* node : {"a", "b", "c"}) {
@@ -104,7 +104,7 @@ TEST_CASE("a switch closing over a ramp: ngspice's decks and the exact reference
   REQUIRE(run.ok());
   const ng::Waveforms spice = ng::read_raw(dir + "/s.raw");
 
-  const rungs::syntax::SourceFile file{"s.rungs", design};
+  const rungs::syntax::InputFile file{"s.rungs", design};
   rungs::syntax::Diagnostics diagnostics(file);
   const auto circuit =
       rungs::model::resolve(rungs::syntax::parse_description(diagnostics), diagnostics);
@@ -117,7 +117,7 @@ TEST_CASE("a switch closing over a ramp: ngspice's decks and the exact reference
   options.target = 2e-4;
   options.closing = plan.closing;
   const rungs::sim::Response exact = rungs::sim::exact_reference(circuit, options);
-  CHECK(exact.accuracy.within_target);
+  CHECK(exact.error_estimate.within_target);
   const rungs::sim::Waveforms reference = exact.total();
   const double swing = 10.0;  // the charge: what the switch releases
   for (const char* node : {"a", "b"}) {

@@ -4,13 +4,13 @@
 #include <string>
 
 #include "8_project/staleness.h"
-#include "6_emit/deck.h"
+#include "6_emit/netlist.h"
 
-using rungs::build::netlist_stale_reason;
+using rungs::project::netlist_stale_reason;
 
 namespace {
 
-/// The head of a deck as write_deck begins it (marker, then the built-in header template).
+/// The head of a deck as write_netlist begins it (marker, then the built-in header template).
 std::string head(const std::string& marker, const std::string& hash) {
   return marker + "\n* design d: every line a lumped ladder\n* source sha256 " + hash +
          "\n* 1 line\n";

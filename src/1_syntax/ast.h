@@ -10,7 +10,7 @@
 #include <boost/spirit/home/x3/support/ast/variant.hpp>
 
 #include "1_syntax/kinds.h"
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 
 namespace rungs::syntax::ast {
 

@@ -28,7 +28,7 @@ std::string Diagnostics::render() const {
   return out;
 }
 
-std::string render_diagnostic(const SourceFile& file, const Diagnostic& diagnostic) {
+std::string render_diagnostic(const InputFile& file, const Diagnostic& diagnostic) {
   const Location where = file.locate(diagnostic.span.begin);
   const std::string_view line = file.line_of(diagnostic.span.begin);
   const char* label = diagnostic.severity == Severity::error ? "error" : "warning";

@@ -3,7 +3,7 @@
 #include <string>
 #include <vector>
 
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 
 namespace rungs::syntax {
 
@@ -20,7 +20,7 @@ struct Diagnostic {
 /// was expected and what to write instead; they carry no location (the span gives it).
 class Diagnostics {
  public:
-  explicit Diagnostics(const SourceFile& file) : file_(&file) {}
+  explicit Diagnostics(const InputFile& file) : file_(&file) {}
 
   void error(Span span, std::string message);
   void warning(Span span, std::string message);
@@ -28,19 +28,19 @@ class Diagnostics {
   bool has_errors() const { return error_count_ > 0; }
   int error_count() const { return error_count_; }
   const std::vector<Diagnostic>& all() const { return list_; }
-  const SourceFile& file() const { return *file_; }
+  const InputFile& file() const { return *file_; }
 
   /// Every diagnostic in source order, each as
   /// `file:line:col: error: message`, the source line, and a caret with tildes under the span.
   std::string render() const;
 
  private:
-  const SourceFile* file_;
+  const InputFile* file_;
   std::vector<Diagnostic> list_;
   int error_count_ = 0;
 };
 
 /// One diagnostic in the format of Diagnostics::render.
-std::string render_diagnostic(const SourceFile& file, const Diagnostic& diagnostic);
+std::string render_diagnostic(const InputFile& file, const Diagnostic& diagnostic);
 
 }  // namespace rungs::syntax

@@ -34,7 +34,7 @@ Span token_at(const std::string& text, std::size_t at) {
   return {at, end};
 }
 
-std::string describe_found(const SourceFile& file, Span token) {
+std::string describe_found(const InputFile& file, Span token) {
   if (token.begin == token.end || file.text[token.begin] == '#') return "the end of the line";
   return fmt::format("'{}'", file.slice(token));
 }
@@ -45,14 +45,14 @@ bool is_name(std::string_view token) {
 }
 
 /// The first token of the line that starts at `line_begin`: the statement keyword.
-Span first_token(const SourceFile& file, std::size_t line_begin) {
+Span first_token(const InputFile& file, std::size_t line_begin) {
   std::size_t i = line_begin;
   while (i < file.text.size() && is_blank(file.text[i])) ++i;
   return token_at(file.text, i);
 }
 
 /// The token that ends just before `at` (blanks skipped), on the same line.
-std::string_view token_before(const SourceFile& file, std::size_t at) {
+std::string_view token_before(const InputFile& file, std::size_t at) {
   std::size_t end = at;
   while (end > 0 && is_blank(file.text[end - 1])) --end;
   std::size_t begin = end;
@@ -64,7 +64,7 @@ std::string_view token_before(const SourceFile& file, std::size_t at) {
 bool is_digit(char c) { return c >= '0' && c <= '9'; }
 
 /// The message for a line whose statement parsed but was followed by something else.
-std::string leftover_message(const SourceFile& file, Span token, std::string_view keyword,
+std::string leftover_message(const InputFile& file, Span token, std::string_view keyword,
                              const std::string& found) {
   const std::string_view found_text = file.slice(token);
   const std::string_view before = token_before(file, token.begin);
@@ -94,7 +94,7 @@ std::string leftover_message(const SourceFile& file, Span token, std::string_vie
   return fmt::format("expected key=value or the end of the line, found {}", found);
 }
 
-std::string expectation_message(const SourceFile& file, std::size_t line_begin,
+std::string expectation_message(const InputFile& file, std::size_t line_begin,
                                 std::string_view which, Span token) {
   const std::string found = describe_found(file, token);
   const std::string_view found_text = file.slice(token);
@@ -153,7 +153,7 @@ const std::set<std::string>& grammar_productions() {
 }
 
 ast::Description parse_description(Diagnostics& diagnostics, std::set<std::string>* productions) {
-  const SourceFile& file = diagnostics.file();
+  const InputFile& file = diagnostics.file();
   const char* const base = file.text.data();
   const char* const end = base + file.text.size();
   grammar::Trace trace;

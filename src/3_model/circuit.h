@@ -5,7 +5,7 @@
 #include <vector>
 
 #include "1_syntax/kinds.h"
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 #include "2_physics/per_length.h"
 
 namespace rungs::model {

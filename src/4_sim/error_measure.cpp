@@ -84,20 +84,20 @@ WaveformError compare_waveforms(std::span<const double> t, std::span<const doubl
   return w;
 }
 
-LadderError measure_ladder_error(const model::Circuit& circuit, const Response& exact,
+LadderMeasurement measure_ladder_error(const model::Circuit& circuit, const Response& exact,
                                  const std::vector<LadderSpec>& ladders,
                                  const ReferenceOptions& options, ResponseWorkspace* workspace) {
   if (ladders.size() != circuit.lines.size())
     throw std::invalid_argument("give a ladder for every line");
   std::vector<std::optional<LadderSpec>> choice(ladders.begin(), ladders.end());
-  LadderError out;
+  LadderMeasurement out;
   out.ladder = frequency_response(circuit, choice, exact.grid, options, workspace);
   const Response& lad = out.ladder;
-  if (lad.nodes != exact.nodes || lad.sources.size() != exact.sources.size() ||
+  if (lad.nodes != exact.nodes || lad.excitations.size() != exact.excitations.size() ||
       lad.t.size() != exact.t.size())
     throw std::invalid_argument("the exact reference is not of this circuit and window");
   out.line_errors.assign(circuit.lines.size(), 0.0);
-  double accuracy = 0.0;
+  double error_estimate = 0.0;
   for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
     for (const bool far : {false, true}) {
       const std::string& name = far ? circuit.lines[k].far : circuit.lines[k].near;
@@ -109,8 +109,8 @@ LadderError measure_ladder_error(const model::Circuit& circuit, const Response& 
       end.far = far;
       end.node = name;
       bool any = false;
-      for (std::size_t c = 0; c < exact.sources.size(); ++c) {
-        const double swing = exact.sources[c].swing;
+      for (std::size_t c = 0; c < exact.excitations.size(); ++c) {
+        const double swing = exact.excitations[c].swing;
         if (!(std::abs(swing) > 0.0)) continue;
         const WaveformError w = compare_waveforms(exact.t, exact.v[c][*i], lad.v[c][*i], swing);
         if (!any || w.error > end.worst.error) {
@@ -131,15 +131,15 @@ LadderError measure_ladder_error(const model::Circuit& circuit, const Response& 
           const double coarse = lad.coarse[c][*i][j] - exact.coarse[c][*i][j];
           trunc = std::max(trunc, std::abs(fine - coarse));
         }
-        end.accuracy = std::max(end.accuracy, trunc / std::abs(swing));
+        end.error_estimate = std::max(end.error_estimate, trunc / std::abs(swing));
       }
       out.line_errors[k] = std::max(out.line_errors[k], end.worst.error);
       out.error = std::max(out.error, end.worst.error);
-      accuracy = std::max(accuracy, end.accuracy);
+      error_estimate = std::max(error_estimate, end.error_estimate);
       out.ends.push_back(std::move(end));
     }
   }
-  out.accuracy = accuracy + exact.accuracy.aliasing + lad.accuracy.aliasing;
+  out.error_estimate = error_estimate + exact.error_estimate.aliasing + lad.error_estimate.aliasing;
   return out;
 }
 

@@ -47,16 +47,16 @@ struct EndError {
   WaveformError worst;
   /// Estimated error of `worst.error` itself: the largest |e_K - e_{K/2}| over the window of the
   /// difference e = v_ladder - v_exact (the inversion's truncation), over |swing|.
-  double accuracy = 0.0;
+  double error_estimate = 0.0;
 };
 
-struct LadderError {
+struct LadderMeasurement {
   std::vector<EndError> ends;       // the near then far end of each line; ends on ground left out
   std::vector<double> line_errors;  // per circuit line: the larger error of its two ends
   double error = 0.0;               // the largest of all ends
-  /// Estimated error of the figures: the largest end accuracy, plus the aliasing bounds of both
+  /// Estimated error of the figures: the largest end error estimate, plus the aliasing bounds of both
   /// responses. A planner may trust `error` to within this.
-  double accuracy = 0.0;
+  double error_estimate = 0.0;
   Response ladder;  // the ladder circuit's waveforms, on the exact reference's grid
 };
 
@@ -67,7 +67,7 @@ struct LadderError {
 /// Sources with zero swing are left out. A workspace (frequency_response) saves rebuilding the
 /// FFT plans from one call to the next. Throws std::invalid_argument when `ladders` does not
 /// match the lines or `exact` is not of this circuit.
-LadderError measure_ladder_error(const model::Circuit& circuit, const Response& exact,
+LadderMeasurement measure_ladder_error(const model::Circuit& circuit, const Response& exact,
                                  const std::vector<LadderSpec>& ladders,
                                  const ReferenceOptions& options,
                                  ResponseWorkspace* workspace = nullptr);

@@ -119,8 +119,8 @@ struct Stamper {
 /// kDcLeak to ground, so that a floating set settles at 0 V.
 class DcSystem {
  public:
-  DcSystem(std::size_t nodes, Eigen::Index sources)
-      : sets_(nodes + 1), ground_(nodes), sources_(sources) {}
+  DcSystem(std::size_t nodes, Eigen::Index excitations)
+      : sets_(nodes + 1), ground_(nodes), sources_(excitations) {}
 
   /// Merges the sets of two nodes (before number_unknowns).
   void join(int p, int q) { sets_.unite(set_of(p), set_of(q)); }
@@ -214,7 +214,7 @@ struct FrequencyNetwork::Impl {
   std::vector<LineEntry> lines;
   std::vector<DriveEntry> drives;
   std::vector<LoadEntry> loads;
-  std::vector<Source> sources;
+  std::vector<Excitation> excitations;
   std::vector<Switch> switches;
   InitialState start = InitialState::settled;
   Eigen::MatrixXd steady;
@@ -247,7 +247,7 @@ FrequencyNetwork::Impl::Impl(const Circuit& circuit,
     if (!model::is_ground(load.node)) node_of(load.node);
   for (std::size_t k = 0; k < circuit.lines.size(); ++k)
     if (circuit.lines[k].charged)
-      sources.push_back({Source::Kind::charge, k, *circuit.lines[k].charged});
+      excitations.push_back({Excitation::Kind::charge, k, *circuit.lines[k].charged});
   for (std::size_t l = 0; l < circuit.loads.size(); ++l) add_load(circuit.loads[l], l);
   order_switches(circuit);
   solve_steady();
@@ -291,7 +291,7 @@ void FrequencyNetwork::Impl::add_drive(const Circuit& circuit, std::size_t index
   else
     e.low = low;
   drives.push_back(std::move(e));
-  sources.push_back({Source::Kind::drive, index_in_circuit, drive.high - low});
+  excitations.push_back({Excitation::Kind::drive, index_in_circuit, drive.high - low});
 }
 
 void FrequencyNetwork::Impl::add_load(const model::Load& load, std::size_t) {
@@ -390,7 +390,7 @@ void FrequencyNetwork::Impl::known_voltages(Complex s, std::size_t closed,
   // A zero-resistance drive carries its own transform in its column; a short holds 0 V, or its
   // compensation source while it is a switch that closed.
   forced.setZero(static_cast<Eigen::Index>(st.forced_nodes.size()),
-                 static_cast<Eigen::Index>(sources.size()));
+                 static_cast<Eigen::Index>(excitations.size()));
   for (std::size_t d = 0; d < drives.size(); ++d)
     if (drives[d].resistance == 0.0)
       forced(st.forced_of[drives[d].node], static_cast<Eigen::Index>(d)) =
@@ -404,7 +404,7 @@ void FrequencyNetwork::Impl::known_voltages(Complex s, std::size_t closed,
 void FrequencyNetwork::Impl::stamp_network(Complex s, std::size_t closed,
                                            const Eigen::MatrixXcd& compensation,
                                            const Stamper& stamp) {
-  const Eigen::Index m = static_cast<Eigen::Index>(sources.size());
+  const Eigen::Index m = static_cast<Eigen::Index>(excitations.size());
   line_y.resize(lines.size());
   for (std::size_t k = 0; k < lines.size(); ++k) {
     line_y[k] = two_port(lines[k], s);
@@ -415,8 +415,8 @@ void FrequencyNetwork::Impl::stamp_network(Complex s, std::size_t closed,
   // uncharged two-port around that voltage, I = Y (V - Vp [1; 1]): a Norton source Y Vp [1; 1].
   // A ladder whose capacitors all start at V0 has the same particular solution.
   for (Eigen::Index c = 0; c < m; ++c) {
-    const Source& src = sources[static_cast<std::size_t>(c)];
-    if (src.kind != Source::Kind::charge) continue;
+    const Excitation& src = excitations[static_cast<std::size_t>(c)];
+    if (src.kind != Excitation::Kind::charge) continue;
     const LineEntry& l = lines[src.index];
     const Admittance& y = line_y[src.index];
     const Complex vp = *l.charged * reciprocal(s + l.totals.g / l.totals.c);
@@ -447,11 +447,11 @@ void FrequencyNetwork::Impl::solve(Complex s, std::size_t closed,
                                    const Eigen::MatrixXcd& compensation, Eigen::MatrixXcd& v) {
   if (closed > switches.size()) throw std::invalid_argument("more switches closed than exist");
   if (closed > 0 && (compensation.rows() < static_cast<Eigen::Index>(closed) ||
-                     compensation.cols() != static_cast<Eigen::Index>(sources.size())))
+                     compensation.cols() != static_cast<Eigen::Index>(excitations.size())))
     throw std::invalid_argument(
         "the compensation needs a row per closed switch, a column per source");
   Stage& st = stage(closed);
-  const Eigen::Index m = static_cast<Eigen::Index>(sources.size());
+  const Eigen::Index m = static_cast<Eigen::Index>(excitations.size());
   known_voltages(s, closed, compensation, st);
   rhs.setZero(st.unknowns, m);
   if (st.sparse)
@@ -488,7 +488,7 @@ void FrequencyNetwork::Impl::solve(Complex s, std::size_t closed,
 
 void FrequencyNetwork::Impl::solve_steady() {
   const std::size_t n = names.size();
-  const Eigen::Index m = static_cast<Eigen::Index>(sources.size());
+  const Eigen::Index m = static_cast<Eigen::Index>(excitations.size());
   steady.setZero(static_cast<Eigen::Index>(n), m);
   if (start != InitialState::settled) return;
   if (std::none_of(drives.begin(), drives.end(), [](const DriveEntry& d) { return d.low != 0.0; }))
@@ -557,8 +557,8 @@ FrequencyNetwork& FrequencyNetwork::operator=(FrequencyNetwork&&) noexcept = def
 const std::vector<std::string>& FrequencyNetwork::nodes() const {
   return impl_->names;
 }
-const std::vector<Source>& FrequencyNetwork::sources() const {
-  return impl_->sources;
+const std::vector<Excitation>& FrequencyNetwork::excitations() const {
+  return impl_->excitations;
 }
 const std::vector<Switch>& FrequencyNetwork::switches() const {
   return impl_->switches;

@@ -21,7 +21,7 @@ namespace rungs::sim {
 /// One independent cause of the response: a drive's change from its low level, or a charged
 /// line's initial charge. Responses are kept apart by source so that each error can be divided by
 /// the swing of the source that causes it.
-struct Source {
+struct Excitation {
   enum class Kind { drive, charge };
   Kind kind = Kind::drive;
   std::size_t index = 0;  // into circuit.drives, or circuit.lines for a charge
@@ -65,7 +65,7 @@ class FrequencyNetwork {
   FrequencyNetwork& operator=(FrequencyNetwork&&) noexcept;
 
   const std::vector<std::string>& nodes() const;
-  const std::vector<Source>& sources() const;
+  const std::vector<Excitation>& excitations() const;
   /// Switched loads in the order they close (by time, then by their order in the text).
   const std::vector<Switch>& switches() const;
   /// The start actually used (automatic resolved).

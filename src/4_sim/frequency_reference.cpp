@@ -23,7 +23,7 @@ using NodeSpectra = Eigen::MatrixXcd;  // rows frequencies, columns sources
 /// `at` the open-switch voltage u(t) = v(t) + v_steady (v the node's change while the switch is
 /// open), so no current flows; from `at` it falls linearly from u(at) to 0 over the closing
 /// time (0: at once), the switch a voltage that collapses as a closing switch's does, and the
-/// same ramp the deck's switch follows (emit/deck.h); then it stays 0. As the network's steady
+/// same ramp the deck's switch follows (6_emit/netlist.h); then it stays 0. As the network's steady
 /// state is taken out apart, the source is e(t) - v_steady:
 ///   E = T[(v - v0) 1(t < at)] + v0/s - (v0 + v_steady) L{1(t >= at)} + u(at) L{q},
 /// q(t) = 1(t >= at) (1 - (t - at)/closing)^+ the ramp down. `initial` is v(0+) per column: the
@@ -182,7 +182,7 @@ std::vector<double> sweep_switch_positions(FrequencyNetwork& network, LaplaceInv
   const LaplaceGrid& grid = inverter.grid();
   const std::size_t kk = grid.frequencies;
   const std::size_t n = network.nodes().size();
-  const std::size_t m = network.sources().size();
+  const std::size_t m = network.excitations().size();
   const auto& switches = network.switches();
   Eigen::MatrixXcd compensation =
       Eigen::MatrixXcd::Zero(static_cast<Eigen::Index>(active), static_cast<Eigen::Index>(m));
@@ -221,7 +221,7 @@ std::vector<double> sweep_switch_positions(FrequencyNetwork& network, LaplaceInv
 }
 
 /// Brings every spectrum of `spectra` to the time domain into r.v, and its lower half into
-/// r.coarse, the jump v(0+) and the steady part put back in closed form; fills r.accuracy
+/// r.coarse, the jump v(0+) and the steady part put back in closed form; fills r.error_estimate
 /// against options.target. r.t, r.sources and the network's figures must be set.
 void invert_spectra(const FrequencyNetwork& network, ResponseWorkspace& work,
                     const ReferenceOptions& options, const Eigen::MatrixXd& initial,
@@ -230,7 +230,7 @@ void invert_spectra(const FrequencyNetwork& network, ResponseWorkspace& work,
   const LaplaceGrid& grid = r.grid;
   const std::size_t kk = grid.frequencies;
   const std::size_t n = r.nodes.size();
-  const std::size_t m = r.sources.size();
+  const std::size_t m = r.excitations.size();
   const std::size_t samples = r.t.size();
   r.v.assign(m, std::vector<std::vector<double>>(n, std::vector<double>(samples)));
   // The coarse inversion uses the lower half of the frequencies on a grid of half the size:
@@ -243,7 +243,7 @@ void invert_spectra(const FrequencyNetwork& network, ResponseWorkspace& work,
   double truncation = 0.0;
   double largest = 0.0;
   for (std::size_t c = 0; c < m; ++c) {
-    const double swing = std::abs(r.sources[c].swing);
+    const double swing = std::abs(r.excitations[c].swing);
     for (std::size_t i = 0; i < n; ++i) {
       const std::span<Complex> spectrum(spectra.data() + (c * n + i) * kk, kk);
       const double v0 = initial(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(c));
@@ -266,9 +266,9 @@ void invert_spectra(const FrequencyNetwork& network, ResponseWorkspace& work,
     }
   }
   const double eps = grid.aliasing();
-  r.accuracy.truncation = truncation;
-  r.accuracy.aliasing = 2.0 * largest * eps / (1.0 - eps);
-  r.accuracy.within_target = r.accuracy.estimate() <= options.target;
+  r.error_estimate.truncation = truncation;
+  r.error_estimate.aliasing = 2.0 * largest * eps / (1.0 - eps);
+  r.error_estimate.within_target = r.error_estimate.estimate() <= options.target;
 }
 
 }  // namespace
@@ -291,14 +291,14 @@ Response frequency_response(const model::Circuit& circuit,
   const Eigen::MatrixXd initial =
       initial_values(network, grid,
                      Eigen::MatrixXcd::Zero(static_cast<Eigen::Index>(active),
-                                            static_cast<Eigen::Index>(network.sources().size())));
+                                            static_cast<Eigen::Index>(network.excitations().size())));
   std::vector<Complex>& spectra = work.spectra();
   Response r;
   r.switch_voltages =
       sweep_switch_positions(network, work.fine(grid), options, initial, active, spectra);
   r.grid = grid;
   r.nodes = network.nodes();
-  r.sources = network.sources();
+  r.excitations = network.excitations();
   r.switches = network.switches();
   r.initial = network.initial();
   const double h = grid.time_step();
@@ -334,10 +334,10 @@ Response exact_reference(const model::Circuit& circuit, const ReferenceOptions& 
   const std::size_t cap = std::max(options.max_frequencies, options.min_frequencies);
   for (;;) {
     Response r = frequency_response(circuit, {}, grid, options, workspace);
-    if (r.accuracy.within_target || grid.frequencies >= cap) return r;
+    if (r.error_estimate.within_target || grid.frequencies >= cap) return r;
     // Truncation error falls as 1/K at corners: ask for what the estimate needs, with a margin.
-    const double need = 1.2 * r.accuracy.truncation /
-                        std::max(options.target - r.accuracy.aliasing, 0.5 * options.target);
+    const double need = 1.2 * r.error_estimate.truncation /
+                        std::max(options.target - r.error_estimate.aliasing, 0.5 * options.target);
     const double factor = std::clamp(need, 1.5, 8.0);
     grid.frequencies = fft_friendly(std::min(
         cap, static_cast<std::size_t>(std::ceil(factor * static_cast<double>(grid.frequencies)))));

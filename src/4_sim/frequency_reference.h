@@ -19,7 +19,7 @@ namespace rungs::sim {
 struct ReferenceOptions {
   double window = 0.0;  // s, observed from t = 0; must be positive
   /// The error the reference may carry, as a fraction of each source's swing. The estimate it is
-  /// held to (ReferenceAccuracy) is about the error, not a bound with a margin: a planner that
+  /// held to (ReferenceErrorEstimate) is about the error, not a bound with a margin: a planner that
   /// must keep the reference under a tenth of its tolerance should ask for a twentieth.
   double target = 1e-3;
   InitialState initial = InitialState::automatic;
@@ -35,7 +35,7 @@ struct ReferenceOptions {
 
 /// How far the reference may stand from the true waveforms, as fractions of the swing of the
 /// source that causes them (the largest over sources and nodes).
-struct ReferenceAccuracy {
+struct ReferenceErrorEstimate {
   /// Estimated truncation error: the largest |v_K(t) - v_{K/2}(t)| over the window, between the
   /// inversion with all K frequencies and with the lower half. The truncation error of a
   /// waveform with corners falls as 1/K, so this is about the error of v_K itself (within a
@@ -53,7 +53,7 @@ struct Response {
   LaplaceGrid grid;
   std::vector<double> t;  // t_j = j grid.time_step(), for t_j <= window
   std::vector<std::string> nodes;
-  std::vector<Source> sources;
+  std::vector<Excitation> excitations;
   std::vector<Switch> switches;
   /// V, per switch that closes inside the window (in closing order): its open voltage at the
   /// moment it closes, all sources together.
@@ -64,7 +64,7 @@ struct Response {
   /// The same from the lower half of the frequencies, at every other sample (t_{2j}): the
   /// truncation estimate's partner.
   std::vector<std::vector<std::vector<double>>> coarse;
-  ReferenceAccuracy accuracy;
+  ReferenceErrorEstimate error_estimate;
 
   /// The node voltages of all sources together.
   Waveforms total() const;
@@ -106,7 +106,7 @@ class ResponseWorkspace {
 /// compensation keeps one linear time-invariant network per switch position and brings only
 /// the switch node's voltage to the time domain and back. Its error is the inversion's, carried
 /// once more through that voltage. `options.window` bounds the samples kept.
-/// The accuracy is filled in against options.target. Throws what FrequencyNetwork throws, and
+/// The error estimate is filled in against options.target. Throws what FrequencyNetwork throws, and
 /// std::invalid_argument when the window exceeds half the grid's period.
 Response frequency_response(const model::Circuit& circuit,
                             const std::vector<std::optional<LadderSpec>>& ladders,
@@ -117,7 +117,7 @@ Response frequency_response(const model::Circuit& circuit,
 /// ramp) Hz, with `ramp` the fastest drive's rise/0.8 (about what a corner of an edge doubled at
 /// an open end needs), at least min_frequencies, and widens it (1.5 to 8 times at once, as the
 /// estimate suggests) until the estimated error meets the target or max_frequencies is reached;
-/// accuracy.within_target says which. The frequency counts are even products of 2, 3 and 5. The
+/// error_estimate.within_target says which. The frequency counts are even products of 2, 3 and 5. The
 /// aliasing factor is target/100, at most 1e-5. A waveform with a true jump (an ideal switch, a
 /// step of zero rise, a charged line discharged at t = 0) cannot meet a small target: its
 /// truncation rings (Gibbs) beside the jump.

@@ -13,7 +13,7 @@
 #include "3_model/connected_parts.h"
 #include "3_model/edges.h"
 #include "3_model/load_network.h"
-#include "5_plan/ladder_error.h"
+#include "5_plan/error_estimate.h"
 
 namespace rungs::plan {
 

@@ -27,7 +27,7 @@ PlanCurves measure_plan_curves(const model::Circuit& circuit, const Plan& plan) 
   sim::ResponseWorkspace workspace;
   const sim::Response exact = sim::exact_reference(circuit, options, &workspace);
   const std::vector<sim::LadderSpec> ladders = ladder_specs(plan);
-  const sim::LadderError measured =
+  const sim::LadderMeasurement measured =
       sim::measure_ladder_error(circuit, exact, ladders, options, &workspace);
   const sim::Waveforms exact_total = exact.total();
   const sim::Waveforms ladder_total = measured.ladder.total();
@@ -45,7 +45,7 @@ PlanCurves measure_plan_curves(const model::Circuit& circuit, const Plan& plan) 
     for (int n : counts) {
       std::vector<sim::LadderSpec> trial = ladders;
       trial[k].sections = n;
-      const sim::LadderError e =
+      const sim::LadderMeasurement e =
           sim::measure_ladder_error(circuit, exact, trial, options, &workspace);
       curve.sections.push_back(n);
       curve.error.push_back(e.line_errors[k]);

@@ -11,7 +11,7 @@
 
 #include "1_syntax/invariant.h"
 #include "3_model/circuit.h"
-#include "5_plan/ladder_error.h"
+#include "5_plan/error_estimate.h"
 #include "4_sim/error_measure.h"
 #include "4_sim/frequency_reference.h"
 
@@ -63,24 +63,24 @@ void for_each_item(ThreadPool& pool, const std::vector<std::size_t>& items, F&& 
   });
 }
 
-bool meets(double error, double accuracy, double tolerance) {
-  return error + accuracy <= tolerance;
+bool meets(double error, double error_estimate, double tolerance) {
+  return error + error_estimate <= tolerance;
 }
 
 /// The errors at the line ends of the circuit, with the lines that have a ladder in `ladders`
-/// cut and the rest exact, and the figures' estimated accuracy (as
+/// cut and the rest exact, and the figures' error estimate (as
 /// sim::measure_ladder_error computes both, which takes every line as a ladder).
-struct Measured {
+struct PartialErrors {
   std::vector<double> line_errors;  // per line: the larger of its two ends
   double error = 0.0;               // the largest of all
-  double accuracy = 0.0;
+  double error_estimate = 0.0;
 };
 
-Measured measure_partial(const model::Circuit& circuit, const sim::Response& exact,
+PartialErrors measure_partial(const model::Circuit& circuit, const sim::Response& exact,
                          const std::vector<std::optional<LadderSpec>>& ladders,
                          const sim::ReferenceOptions& options, sim::ResponseWorkspace& ws) {
   const sim::Response lad = sim::frequency_response(circuit, ladders, exact.grid, options, &ws);
-  Measured m;
+  PartialErrors m;
   std::vector<double> node_error(exact.nodes.size(), -1.0);  // -1: not a line end
   for (const model::Line& line : circuit.lines)
     for (const std::string* name : {&line.near, &line.far}) {
@@ -90,8 +90,8 @@ Measured measure_partial(const model::Circuit& circuit, const sim::Response& exa
   double trunc_worst = 0.0;
   for (std::size_t i = 0; i < node_error.size(); ++i) {
     if (node_error[i] < 0.0) continue;
-    for (std::size_t c = 0; c < exact.sources.size(); ++c) {
-      const double swing = exact.sources[c].swing;
+    for (std::size_t c = 0; c < exact.excitations.size(); ++c) {
+      const double swing = exact.excitations[c].swing;
       if (!(std::abs(swing) > 0.0)) continue;
       node_error[i] = std::max(
           node_error[i], sim::compare_waveforms(exact.t, exact.v[c][i], lad.v[c][i], swing).error);
@@ -112,27 +112,27 @@ Measured measure_partial(const model::Circuit& circuit, const sim::Response& exa
     m.line_errors.push_back(e);
     m.error = std::max(m.error, e);
   }
-  m.accuracy = trunc_worst + exact.accuracy.aliasing + lad.accuracy.aliasing;
+  m.error_estimate = trunc_worst + exact.error_estimate.aliasing + lad.error_estimate.aliasing;
   return m;
 }
 
 Verification verify_against(const model::Circuit& circuit, const Plan& plan,
                             const sim::Response& exact, const sim::ReferenceOptions& o,
                             sim::ResponseWorkspace& ws, bool with_rule = true) {
-  const sim::LadderError planned =
+  const sim::LadderMeasurement planned =
       sim::measure_ladder_error(circuit, exact, ladder_specs(plan, false), o, &ws);
-  const sim::LadderError rule =
+  const sim::LadderMeasurement rule =
       with_rule ? sim::measure_ladder_error(circuit, exact, ladder_specs(plan, true), o, &ws)
                 : planned;
   Verification v;
-  v.accuracy = planned.accuracy;
-  v.reference_within_target = exact.accuracy.within_target;
+  v.error_estimate = planned.error_estimate;
+  v.reference_within_target = exact.error_estimate.within_target;
   v.lines.resize(circuit.lines.size());
   for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
     LineVerdict& lv = v.lines[k];
     lv.error = planned.line_errors[k];
     lv.rule_error = rule.line_errors[k];
-    lv.adequate = meets(lv.error, planned.accuracy, plan.lines[k].tolerance);
+    lv.adequate = meets(lv.error, planned.error_estimate, plan.lines[k].tolerance);
   }
   for (const sim::EndError& end : planned.ends) {
     LineVerdict& lv = v.lines[end.line];
@@ -146,20 +146,20 @@ Verification verify_against(const model::Circuit& circuit, const Plan& plan,
 }
 
 /// The smallest passing N of one line with the others exact (see plan_verified).
-/// One line's measured counts, kept across searches: N -> error + accuracy, that line alone a
+/// One line's measured counts, kept across searches: N -> error + error estimate, that line alone a
 /// ladder (the rest exact), so a search at a tighter budget only measures counts not yet seen.
-using Measurements = std::map<int, double>;
+using ErrorsByCount = std::map<int, double>;
 
 int search_line(const model::Circuit& circuit, const sim::Response& exact,
                 const sim::ReferenceOptions& o, sim::ResponseWorkspace& ws, std::size_t k,
-                const LinePlan& lp, double budget, Measurements& seen, bool scan) {
+                const LinePlan& lp, double budget, ErrorsByCount& seen, bool scan) {
   const auto passes = [&](int n) {
     auto it = seen.find(n);
     if (it == seen.end()) {
       std::vector<std::optional<LadderSpec>> ladders(circuit.lines.size());
       ladders[k] = LadderSpec{n, lp.shape};
-      const Measured m = measure_partial(circuit, exact, ladders, o, ws);
-      it = seen.emplace(n, m.error + m.accuracy).first;
+      const PartialErrors m = measure_partial(circuit, exact, ladders, o, ws);
+      it = seen.emplace(n, m.error + m.error_estimate).first;
     }
     return it->second <= budget;
   };
@@ -248,7 +248,7 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
   std::vector<std::size_t> adjustable;
   for (std::size_t j = 0; j < n; ++j)
     if (!plan.lines[j].fixed && plan.lines[j].rise > 0.0) adjustable.push_back(j);
-  std::vector<Measurements> seen(n);
+  std::vector<ErrorsByCount> seen(n);
   std::vector<double> share(n, 1.0);  // of each line's tolerance, its budget alone
   // Each line alone: the searches share nothing but the reference, so they run side by side.
   for_each_item(pool, adjustable, [&](std::size_t k, sim::ResponseWorkspace& own) {
@@ -268,9 +268,9 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
     std::vector<std::optional<LadderSpec>> fixed(n);
     for (std::size_t j = 0; j < n; ++j)
       if (plan.lines[j].fixed) fixed[j] = LadderSpec{std::max(1, plan.lines[j].sections), plan.lines[j].shape};
-    const Measured f = measure_partial(circuit, exact, fixed, o, ws);
+    const PartialErrors f = measure_partial(circuit, exact, fixed, o, ws);
     for (std::size_t k = 0; k < n; ++k)
-      owed_to_fixed[k] = !meets(f.line_errors[k], f.accuracy, plan.lines[k].tolerance);
+      owed_to_fixed[k] = !meets(f.line_errors[k], f.error_estimate, plan.lines[k].tolerance);
   }
   // While a line fails, the planned lines that meet it (it and those sharing one of its
   // ends) search again alone at a smaller share of their tolerance: by the worst failing
@@ -282,7 +282,7 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
     for (std::size_t k = 0; k < n; ++k) {
       if (v.lines[k].adequate || owed_to_fixed[k]) continue;
       failing = true;
-      ratio = std::min(ratio, std::max(0.0, plan.lines[k].tolerance - v.accuracy) /
+      ratio = std::min(ratio, std::max(0.0, plan.lines[k].tolerance - v.error_estimate) /
                                   std::max(v.lines[k].error, 1e-12));
       const model::Line& line = circuit.lines[k];
       for (const std::size_t j : adjustable) {
@@ -325,7 +325,7 @@ void merge_part(const sim::CircuitPart& part, const Plan& from, Plan& into) {
 
 void merge_part(const sim::CircuitPart& part, const Verification& from, Verification& into) {
   for (std::size_t j = 0; j < part.lines.size(); ++j) into.lines[part.lines[j]] = from.lines[j];
-  into.accuracy = std::max(into.accuracy, from.accuracy);
+  into.error_estimate = std::max(into.error_estimate, from.error_estimate);
   into.reference_within_target = into.reference_within_target && from.reference_within_target;
 }
 

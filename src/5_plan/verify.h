@@ -14,13 +14,13 @@
 namespace rungs::plan {
 
 /// One line's ladder measured against the exact line, as fractions of the swing of the drive
-/// that causes each difference (sim/error_measure.h).
+/// that causes each difference (4_sim/error_measure.h).
 struct LineVerdict {
   double error = 0.0;                 // the larger of the line's two ends, all ladders in place
   std::optional<double> delay_error;  // s, the 50 %-crossing error of larger magnitude
   double overshoot_error = 0.0;       // of larger magnitude over the two ends
   double rule_error = 0.0;            // the same error with every line at its rule count
-  /// error plus the measurement's own estimated accuracy is within the line's tolerance: the
+  /// error plus the measurement's own error estimate is within the line's tolerance: the
   /// count is adequate only when the budget holds with the measure's uncertainty added.
   bool adequate = false;
   /// The line fails even with every planned line exact: the fixed ladders (sections=) of the
@@ -30,8 +30,8 @@ struct LineVerdict {
 
 struct Verification {
   std::vector<LineVerdict> lines;  // parallel to circuit.lines
-  /// Estimated error of the measured figures (LadderError::accuracy of the plan's ladders).
-  double accuracy = 0.0;
+  /// Estimated error of the measured figures (LadderMeasurement::error_estimate of the plan's ladders).
+  double error_estimate = 0.0;
   /// Whether the exact reference met its target (the smallest tolerance over 20).
   bool reference_within_target = false;
 };
@@ -48,7 +48,7 @@ Verification verify_plan(const model::Circuit& circuit, const Plan& plan, Thread
 Verification verify_plan(const model::Circuit& circuit, const Plan& plan);
 
 /// The smallest N per line (in the shape planned) whose whole-circuit error, plus the
-/// measure's accuracy, is within the line's tolerance:
+/// measure's error estimate, is within the line's tolerance:
 /// 1. each line alone, every other line exact: from the analytic N, exponential steps (halving
 ///    while it passes, doubling while it fails) bracket the smallest passing N, then bisection
 ///    narrows the bracket;

@@ -116,7 +116,7 @@ std::string plan_text(const model::Circuit& circuit, const plan::Plan& plan,
     out += fmt::format("errors are measured against the exact line (frequency-domain reference, "
                        "accuracy {} of the swing): the largest difference at any line end over "
                        "the window, over the drive's swing\n",
-                       percent(verification->accuracy));
+                       percent(verification->error_estimate));
   for (std::size_t i = 0; i < circuit.lines.size(); ++i) {
     if (plan.lines[i].sections > kIdealLineAdvice)
       out += fmt::format("advice: line {} needs {} sections; a ladder this long is slow to "
@@ -174,7 +174,7 @@ std::string plan_json(const model::Circuit& circuit, const plan::Plan& plan,
   json.end_array();
   json.key("elements").value(plan.elements);
   json.key("verified").value(verification != nullptr);
-  if (verification) json.key("accuracy").value(verification->accuracy);
+  if (verification) json.key("accuracy").value(verification->error_estimate);
   auto maybe = [&](double v) { return peak.computed ? std::optional<double>(v) : std::nullopt; };
   json.key("peak_ratio").value(maybe(peak.ratio));
   json.key("peak_voltage").value(maybe(peak.voltage));
@@ -218,7 +218,7 @@ std::vector<std::string> inadequate_lines(const model::Circuit& circuit, const p
     out.push_back(fmt::format("line {}: {} sections err {} of the swing (accuracy {}), over its {} "
                               "budget",
                               circuit.lines[i].name, plan.lines[i].sections, percent(v.error),
-                              percent(verification.accuracy), percent(plan.lines[i].tolerance)));
+                              percent(verification.error_estimate), percent(plan.lines[i].tolerance)));
     if (v.owed_to_fixed && !plan.lines[i].fixed) {
       std::string fixed;
       for (std::size_t j = 0; j < circuit.lines.size(); ++j)

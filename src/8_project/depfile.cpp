@@ -4,7 +4,7 @@
 #include <set>
 #include <vector>
 
-namespace rungs::build {
+namespace rungs::project {
 
 std::string escape_make_path(std::string_view path) {
   std::string out;
@@ -64,4 +64,4 @@ std::string make_depfile(std::span<const std::string> targets,
   return out;
 }
 
-}  // namespace rungs::build
+}  // namespace rungs::project

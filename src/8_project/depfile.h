@@ -4,7 +4,7 @@
 #include <string>
 #include <string_view>
 
-namespace rungs::build {
+namespace rungs::project {
 
 /// `path` escaped for a make rule as GCC's dependency writer escapes it (libcpp/mkdeps.cc):
 /// a space or tab as `\ ` with the backslashes before it doubled, `#` as `\#`, `$` as `$$`.
@@ -27,4 +27,4 @@ std::string depfile_problem(std::span<const std::string> targets,
 std::string make_depfile(std::span<const std::string> targets,
                          std::span<const std::string> prerequisites);
 
-}  // namespace rungs::build
+}  // namespace rungs::project

@@ -15,7 +15,7 @@
 #include "1_syntax/text.h"
 #include "3_model/resolve.h"
 
-namespace rungs::build {
+namespace rungs::project {
 
 namespace {
 
@@ -37,7 +37,7 @@ std::string_view setting_example(std::string_view key) {
 }
 
 /// The byte offset of a toml++ position: 1-based line, and column in code points, which is
-/// how toml++ counts (and how SourceFile::locate counts back).
+/// how toml++ counts (and how InputFile::locate counts back).
 std::size_t offset_of(std::string_view text, const toml::source_position& at) {
   std::size_t offset = 0;
   for (toml::source_index line = 1; line < at.line; ++line) {
@@ -83,7 +83,7 @@ std::string toml_message(std::string_view description, bool at_line_end) {
 
 /// For a TOML error on a line like `rise = 350ps`: the span of the unquoted value and a
 /// message that says to quote it, since units make the value a string.
-std::optional<std::pair<Span, std::string>> unquoted_unit_hint(const syntax::SourceFile& file,
+std::optional<std::pair<Span, std::string>> unquoted_unit_hint(const syntax::InputFile& file,
                                                                std::size_t error_at) {
   const std::string_view line = file.line_of(error_at);
   const std::size_t line_begin = static_cast<std::size_t>(line.data() - file.text.data());
@@ -211,7 +211,7 @@ class ManifestReader {
       return std::nullopt;
     }
     // The same words `set` would read, checked by the same code, so the messages agree.
-    const syntax::SourceFile probe{"", fmt::format("set {} {}\n", key, value)};
+    const syntax::InputFile probe{"", fmt::format("set {} {}\n", key, value)};
     Diagnostics probe_diagnostics(probe);
     const auto description = syntax::parse_description(probe_diagnostics);
     (void)model::resolve(description, probe_diagnostics);
@@ -356,4 +356,4 @@ void apply_defaults(syntax::ast::Description& description,
   }
 }
 
-}  // namespace rungs::build
+}  // namespace rungs::project

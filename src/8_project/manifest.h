@@ -7,7 +7,7 @@
 #include "1_syntax/ast.h"
 #include "1_syntax/diagnostics.h"
 
-namespace rungs::build {
+namespace rungs::project {
 
 /// The manifest's file name, looked up from the current folder upward.
 inline constexpr std::string_view kManifestName = "rungs.toml";
@@ -67,4 +67,4 @@ std::string templates_of(const Manifest& manifest, const NetlistEntry& entry);
 void apply_defaults(syntax::ast::Description& description,
                     const std::vector<DefaultSetting>& settings);
 
-}  // namespace rungs::build
+}  // namespace rungs::project

@@ -3,9 +3,9 @@
 
 #include <fmt/format.h>
 
-#include "6_emit/deck.h"
+#include "6_emit/netlist.h"
 
-namespace rungs::build {
+namespace rungs::project {
 
 namespace {
 
@@ -62,4 +62,4 @@ std::string netlist_stale_reason(std::string_view existing, std::string_view exp
          "the templates changed)";
 }
 
-}  // namespace rungs::build
+}  // namespace rungs::project

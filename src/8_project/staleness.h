@@ -3,7 +3,7 @@
 #include <string>
 #include <string_view>
 
-namespace rungs::build {
+namespace rungs::project {
 
 /// How many bytes of each file stale_reason looks at.
 inline constexpr std::size_t kHeadBytes = 1024;
@@ -16,4 +16,4 @@ inline constexpr std::size_t kHeadBytes = 1024;
 /// the manifest's defaults or the templates changed.
 std::string netlist_stale_reason(std::string_view existing, std::string_view expected);
 
-}  // namespace rungs::build
+}  // namespace rungs::project

@@ -30,8 +30,8 @@ std::string find_manifest() {
   if (ec) return "";
   std::string up;
   for (;;) {
-    if (fs::is_regular_file(folder / build::kManifestName, ec))
-      return up + std::string(build::kManifestName);
+    if (fs::is_regular_file(folder / project::kManifestName, ec))
+      return up + std::string(project::kManifestName);
     if (!folder.has_relative_path()) return "";
     folder = folder.parent_path();
     up += "../";
@@ -60,17 +60,17 @@ std::string manifest_path(const BuildOptions& options) {
     if (path.empty())
       throw BadInput(
           fmt::format("no {} in this folder or any folder above it; give one with --manifest FILE",
-                      build::kManifestName));
+                      project::kManifestName));
     return path;
   }
   if (fs::is_directory(options.manifest, ec))
-    return (fs::path(options.manifest) / build::kManifestName).string();
+    return (fs::path(options.manifest) / project::kManifestName).string();
   return options.manifest;
 }
 
 /// The job of one [[netlist]]; paths that lead nowhere are errors in `diagnostics`, pointed
 /// at in the manifest, since they are its mistake.
-NetlistJob job_of(const build::Manifest& manifest, const build::NetlistEntry& entry,
+NetlistJob job_of(const project::Manifest& manifest, const project::NetlistEntry& entry,
                   const fs::path& folder, const BuildOptions& options,
                   syntax::Diagnostics& diagnostics) {
   NetlistJob job;
@@ -79,7 +79,7 @@ NetlistJob job_of(const build::Manifest& manifest, const build::NetlistEntry& en
   job.output = from_manifest(folder, entry.output);
   if (!entry.report.empty()) job.report = from_manifest(folder, entry.report);
   if (!entry.report_json.empty()) job.report_json = from_manifest(folder, entry.report_json);
-  const std::string templates = build::templates_of(manifest, entry);
+  const std::string templates = project::templates_of(manifest, entry);
   if (!templates.empty()) job.templates = from_manifest(folder, templates);
   job.library = entry.library;
   job.with_ideal = entry.with_ideal;
@@ -103,12 +103,12 @@ NetlistJob job_of(const build::Manifest& manifest, const build::NetlistEntry& en
 /// FileHasErrors when the manifest has errors.
 LoadedManifest load_manifest(const BuildOptions& options) {
   const std::string path = manifest_path(options);
-  const syntax::SourceFile file = read_source(path);
+  const syntax::InputFile file = read_source(path);
   syntax::Diagnostics diagnostics(file);
-  const build::Manifest manifest = build::parse_manifest(diagnostics);
+  const project::Manifest manifest = project::parse_manifest(diagnostics);
   LoadedManifest loaded{path, {}};
   if (!diagnostics.has_errors()) {
-    for (const build::NetlistEntry& entry : manifest.netlists)
+    for (const project::NetlistEntry& entry : manifest.netlists)
       loaded.jobs.push_back(
           job_of(manifest, entry, fs::path(path).parent_path(), options, diagnostics));
   }
@@ -129,7 +129,7 @@ struct Task {
 std::string stale_reason(const Task& task) {
   if (!task.compared.exists) return "missing";
   if (task.output.is_netlist)
-    return build::netlist_stale_reason(task.compared.existing_head, task.compared.expected_head);
+    return project::netlist_stale_reason(task.compared.existing_head, task.compared.expected_head);
   return "differs from what rungs writes now";
 }
 
@@ -158,9 +158,9 @@ void write_build_depfile(const std::string& depfile, const LoadedManifest& manif
   for (std::size_t i = 0; i < manifest.jobs.size(); ++i)
     for (std::string& path : job_prerequisites(manifest.jobs[i], *prepared[i].netlist))
       prerequisites.push_back(std::move(path));
-  if (std::string problem = build::depfile_problem(targets, prerequisites); !problem.empty())
+  if (std::string problem = project::depfile_problem(targets, prerequisites); !problem.empty())
     throw FileError(problem);
-  const std::string text = build::make_depfile(targets, prerequisites);
+  const std::string text = project::make_depfile(targets, prerequisites);
   write_if_changed(
       depfile, [&](std::ostream& out) { out << text; }, false, true);
 }
@@ -227,7 +227,7 @@ void run_tasks(std::vector<Task>& tasks, const BuildOptions& options, plan::Thre
         try {
           if (options.check)
             task.compared =
-                compare_with_file(task.output.path, task.output.write, build::kHeadBytes);
+                compare_with_file(task.output.path, task.output.write, project::kHeadBytes);
           else
             task.changed = write_output(task.output);
         } catch (const Error& e) {

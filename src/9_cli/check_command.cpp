@@ -20,11 +20,11 @@ namespace {
 std::string netlist_reason(const std::string& path, const NetlistJob& job,
                            const PreparedNetlist& netlist) {
   const Comparison compared =
-      compare_with_file(path, job_outputs(job, netlist).front().write, build::kHeadBytes);
+      compare_with_file(path, job_outputs(job, netlist).front().write, project::kHeadBytes);
   if (!compared.exists) return fmt::format("netlist {}: missing; run rungs emit", path);
   if (compared.same) return "";
   return fmt::format("netlist {}: stale, {}; run rungs emit", path,
-                     build::netlist_stale_reason(compared.existing_head, compared.expected_head));
+                     project::netlist_stale_reason(compared.existing_head, compared.expected_head));
 }
 
 /// The check's outcome as JSON: the reasons and every line's figures.

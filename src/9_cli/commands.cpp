@@ -24,7 +24,7 @@ namespace {
 
 /// Parses and resolves; prints every diagnostic to stderr. Throws FileHasErrors when there
 /// were errors.
-model::Circuit load_circuit(const syntax::SourceFile& file) {
+model::Circuit load_circuit(const syntax::InputFile& file) {
   syntax::Diagnostics diagnostics(file);
   const auto description = syntax::parse_description(diagnostics);
   model::Circuit circuit = model::resolve(description, diagnostics);

@@ -35,9 +35,9 @@ void write_emit_depfile(const std::string& depfile, const NetlistJob& job,
   std::vector<std::string> targets;
   for (const JobOutput& output : job_outputs(job, netlist)) targets.push_back(output.path);
   const std::vector<std::string> prerequisites = job_prerequisites(job, netlist);
-  if (std::string problem = build::depfile_problem(targets, prerequisites); !problem.empty())
+  if (std::string problem = project::depfile_problem(targets, prerequisites); !problem.empty())
     throw FileError(problem);
-  const std::string text = build::make_depfile(targets, prerequisites);
+  const std::string text = project::make_depfile(targets, prerequisites);
   write_atomically(
       depfile, [&](std::ostream& out) { out << text; }, false, true);
 }

@@ -67,13 +67,13 @@ std::string absolute_path(const std::string& path) {
 /// The job's description with its defaults applied, resolved and planned by the analytic
 /// estimate; the diagnostics are added to `messages`. Throws FileHasErrors when the
 /// description has errors.
-PreparedNetlist resolve_and_plan(const NetlistJob& job, syntax::SourceFile file,
+PreparedNetlist resolve_and_plan(const NetlistJob& job, syntax::InputFile file,
                                  std::string& messages) {
   PreparedNetlist netlist;
   netlist.file = std::move(file);
   syntax::Diagnostics diagnostics(netlist.file);
   auto description = syntax::parse_description(diagnostics);
-  build::apply_defaults(description, job.defaults);
+  project::apply_defaults(description, job.defaults);
   netlist.circuit = model::resolve(description, diagnostics);
   if (!diagnostics.has_errors()) netlist.plan = plan::plan_circuit(netlist.circuit, diagnostics);
   messages += diagnostics.render();
@@ -113,7 +113,7 @@ void fill_closing_voltages(PreparedNetlist& netlist, std::string& messages) {
 }
 
 /// prepare_netlist, throwing the error that stops it.
-PreparedNetlist prepare(const NetlistJob& job, syntax::SourceFile file, plan::ThreadPool& pool,
+PreparedNetlist prepare(const NetlistJob& job, syntax::InputFile file, plan::ThreadPool& pool,
                         std::string& messages) {
   PreparedNetlist netlist = resolve_and_plan(job, std::move(file), messages);
   // A bad template is found before anything is written.
@@ -129,23 +129,23 @@ PreparedNetlist prepare(const NetlistJob& job, syntax::SourceFile file, plan::Th
 
 }  // namespace
 
-syntax::SourceFile read_source(const std::string& path) {
+syntax::InputFile read_source(const std::string& path) {
   std::ostringstream text;
   if (path == "-") {
     text << std::cin.rdbuf();
-    return syntax::SourceFile{"<stdin>", text.str()};
+    return syntax::InputFile{"<stdin>", text.str()};
   }
   std::ifstream in(path, std::ios::binary);
   if (!in) throw FileError(fmt::format("cannot read '{}': {}", path, std::strerror(errno)));
   text << in.rdbuf();
-  return syntax::SourceFile{path, text.str()};
+  return syntax::InputFile{path, text.str()};
 }
 
 const plan::Verification* verification_of(const PreparedNetlist& netlist) {
   return netlist.verification ? &*netlist.verification : nullptr;
 }
 
-Preparation prepare_netlist(const NetlistJob& job, syntax::SourceFile file,
+Preparation prepare_netlist(const NetlistJob& job, syntax::InputFile file,
                             plan::ThreadPool& pool) {
   Preparation result;
   try {
@@ -167,7 +167,7 @@ Preparation prepare_netlist(const NetlistJob& job, plan::ThreadPool& pool) {
 }
 
 PreparedNetlist prepare_for_command(const NetlistJob& job, plan::ThreadPool& pool) {
-  syntax::SourceFile file = read_source(job.source);
+  syntax::InputFile file = read_source(job.source);
   Preparation prepared = [&] {
     const ProgressNote note(job.analytic ? ""
                                          : fmt::format("verifying the ladders of {}", file.name));
@@ -202,9 +202,9 @@ std::vector<JobOutput> job_outputs(const NetlistJob& job, const PreparedNetlist&
   // do not depend on the folder it was started from.
   const std::string& name = job.header_name.empty() ? netlist.file.name : job.header_name;
   outputs.push_back({job.output, true, [&job, &netlist, name](std::ostream& out) {
-                       const emit::DeckSource source{name, emit::sha256_hex(netlist.file.text)};
-                       const emit::DeckOptions options{job.library, job.with_ideal};
-                       emit::write_deck(out, netlist.circuit, netlist.plan, source,
+                       const emit::NetlistOrigin source{name, emit::sha256_hex(netlist.file.text)};
+                       const emit::NetlistOptions options{job.library, job.with_ideal};
+                       emit::write_netlist(out, netlist.circuit, netlist.plan, source,
                                         netlist.templates, options);
                      }});
   if (!job.report.empty()) {

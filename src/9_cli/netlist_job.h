@@ -6,13 +6,13 @@
 #include <string>
 #include <vector>
 
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 #include "3_model/circuit.h"
 #include "4_sim/peak.h"
 #include "5_plan/plan.h"
 #include "5_plan/thread_pool.h"
 #include "5_plan/verify.h"
-#include "6_emit/deck.h"
+#include "6_emit/netlist.h"
 #include "8_project/manifest.h"
 #include "9_cli/errors.h"
 
@@ -31,12 +31,12 @@ struct NetlistJob {
   /// Plan by the analytic estimate only; otherwise (the default) by the verified planner,
   /// every ladder measured against the exact reference.
   bool analytic = false;
-  std::vector<build::DefaultSetting> defaults;  // design-wide settings from a manifest
+  std::vector<project::DefaultSetting> defaults;  // design-wide settings from a manifest
 };
 
 /// A description read, resolved and planned, with everything its outputs need.
 struct PreparedNetlist {
-  syntax::SourceFile file;
+  syntax::InputFile file;
   model::Circuit circuit;
   plan::Plan plan;
   emit::TemplateSet templates;
@@ -59,7 +59,7 @@ struct Preparation {
 /// every message is in the result. Safe to call from several threads at once.
 Preparation prepare_netlist(const NetlistJob& job, plan::ThreadPool& pool);
 /// As above, with the description's text already read (`file`).
-Preparation prepare_netlist(const NetlistJob& job, syntax::SourceFile file, plan::ThreadPool& pool);
+Preparation prepare_netlist(const NetlistJob& job, syntax::InputFile file, plan::ThreadPool& pool);
 
 /// prepare_netlist for a command's top level, on its main thread: reads the description, then
 /// shows a progress line on the terminal while the ladders are verified (not while standard
@@ -70,7 +70,7 @@ PreparedNetlist prepare_for_command(const NetlistJob& job, plan::ThreadPool& poo
 /// The verification of a prepared netlist, or null when it was planned analytically.
 const plan::Verification* verification_of(const PreparedNetlist& netlist);
 
-/// Writes the plan's charts (report/plots.h) as SVG files into `folder`, creating it. Throws
+/// Writes the plan's charts (7_report/plots.h) as SVG files into `folder`, creating it. Throws
 /// FileError, or ReferenceFailed when a chart's waveforms cannot be computed.
 void write_plots(const std::string& folder, const PreparedNetlist& netlist);
 
@@ -92,6 +92,6 @@ std::vector<std::string> job_prerequisites(const NetlistJob& job, const Prepared
 
 /// Reads a description from a path, or from standard input for "-"; throws FileError when it
 /// cannot be read.
-syntax::SourceFile read_source(const std::string& path);
+syntax::InputFile read_source(const std::string& path);
 
 }  // namespace rungs::cli

@@ -17,7 +17,7 @@
 #include <fmt/format.h>
 #include <unistd.h>
 
-#include "6_emit/deck.h"
+#include "6_emit/netlist.h"
 #include "9_cli/errors.h"
 
 namespace rungs::cli {

@@ -1,5 +1,5 @@
 // The analytic ladder error estimate and the section counts derived from it.
-#include "5_plan/ladder_error.h"
+#include "5_plan/error_estimate.h"
 
 #include <algorithm>
 #include <cmath>

@@ -6,7 +6,7 @@
 
 namespace rungs::syntax {
 
-/// Half-open byte range [begin, end) into a SourceFile's text.
+/// Half-open byte range [begin, end) into a InputFile's text.
 struct Span {
   std::size_t begin = 0;
   std::size_t end = 0;
@@ -19,7 +19,7 @@ struct Location {
 };
 
 /// The text of one description and the name it is reported under (a path or "<stdin>").
-struct SourceFile {
+struct InputFile {
   std::string name;
   std::string text;
 

@@ -1,5 +1,5 @@
 // Locating byte offsets of a description as lines and columns.
-#include "1_syntax/source.h"
+#include "1_syntax/input_file.h"
 
 #include <algorithm>
 
@@ -15,7 +15,7 @@ bool breaks_line(std::string_view text, std::size_t i) {
 }
 }  // namespace
 
-Location SourceFile::locate(std::size_t offset) const {
+Location InputFile::locate(std::size_t offset) const {
   offset = std::min(offset, text.size());
   Location where;
   std::size_t line_start = 0;
@@ -31,7 +31,7 @@ Location SourceFile::locate(std::size_t offset) const {
   return where;
 }
 
-std::string_view SourceFile::line_of(std::size_t offset) const {
+std::string_view InputFile::line_of(std::size_t offset) const {
   std::string_view all(text);
   offset = std::min(offset, all.size());
   std::size_t begin = offset;
@@ -41,7 +41,7 @@ std::string_view SourceFile::line_of(std::size_t offset) const {
   return all.substr(begin, end - begin);
 }
 
-std::string_view SourceFile::slice(Span span) const {
+std::string_view InputFile::slice(Span span) const {
   std::size_t begin = std::min(span.begin, text.size());
   std::size_t end = std::clamp(span.end, begin, text.size());
   return std::string_view(text).substr(begin, end - begin);

@@ -9,13 +9,13 @@
 
 namespace rungs::emit {
 
-struct DeckOptions {
+struct NetlistOptions {
   bool library = false;     // subcircuits only: no drives, loads, analysis or .end
   bool with_ideal = false;  // also the simulator's ideal line beside each ladder
 };
 
 /// What the deck is made from.
-struct DeckSource {
+struct NetlistOrigin {
   std::string name;  // the source file as the user named it, for the header
   std::string hash;  // SHA-256 of its text
 };
@@ -29,7 +29,7 @@ bool is_deck_marker(std::string_view first_line);
 /// Checks that every template the deck uses is present and fills with the placeholders it
 /// is given (header: design, source_hash, lines, elements, tolerance; line_begin and
 /// line_end: name, model, z0, delay, sections, shape, subckt; analysis: max_step, stop, uic,
-/// saves). Returns the first problem, or empty. write_deck assumes this passed.
+/// saves). Returns the first problem, or empty. write_netlist assumes this passed.
 std::string check_templates(const TemplateSet& templates);
 
 /// Writes the netlist to `out`, streaming. Top-level nodes keep the description's names,
@@ -38,8 +38,8 @@ std::string check_templates(const TemplateSet& templates);
 /// their source resistance; loads are R, C, L networks to ground, switched ones through a
 /// SPICE3 voltage-controlled switch; a charged line starts from its voltage under `uic`.
 /// Returns an error message for a template that fails to fill, else empty.
-std::string write_deck(std::ostream& out, const model::Circuit& circuit, const plan::Plan& plan,
-                       const DeckSource& source, const TemplateSet& templates,
-                       const DeckOptions& options);
+std::string write_netlist(std::ostream& out, const model::Circuit& circuit, const plan::Plan& plan,
+                       const NetlistOrigin& source, const TemplateSet& templates,
+                       const NetlistOptions& options);
 
 }  // namespace rungs::emit

@@ -1,5 +1,5 @@
 // Assembling the deck: subcircuits from the ladder writer, drives, loads, analysis.
-#include "6_emit/deck.h"
+#include "6_emit/netlist.h"
 
 #include <algorithm>
 #include <charconv>
@@ -242,9 +242,9 @@ bool is_deck_marker(std::string_view first_line) {
   return first_line.substr(0, kMarkerStart.size()) == kMarkerStart;
 }
 
-std::string write_deck(std::ostream& out, const Circuit& circuit, const plan::Plan& plan,
-                       const DeckSource& source, const TemplateSet& templates,
-                       const DeckOptions& options) {
+std::string write_netlist(std::ostream& out, const Circuit& circuit, const plan::Plan& plan,
+                       const NetlistOrigin& source, const TemplateSet& templates,
+                       const NetlistOptions& options) {
   std::string error;
   auto emit_template = [&](std::string_view name, const TemplateValues& values) {
     auto text = templates.find(name);
