@@ -2,6 +2,7 @@
 #include <catch2/catch.hpp>
 
 #include <cstdlib>
+#include <filesystem>
 #include <fstream>
 #include <iterator>
 
@@ -182,4 +183,56 @@ TEST_CASE("exit codes: 3 for a chart folder that cannot be made, with nothing on
   CHECK(r.out.empty());
   CHECK(r.err.rfind("rungs: cannot make the folder '" + file + "': ", 0) == 0);
   std::remove(file.c_str());
+}
+
+TEST_CASE("emit says what it wrote and how to run the deck") {
+  namespace fs = std::filesystem;
+  const fs::path dir = fs::temp_directory_path() / "rungs_cli_written";
+  fs::remove_all(dir);
+  fs::create_directories(dir);
+  const std::string deck = (dir / "air.cir").string();
+  const std::string report = (dir / "air.txt").string();
+  const std::string raw = (dir / "air.raw").string();
+  auto r = run_rungs("emit --analytic - -o " + deck + " --report " + report, kAirCoax);
+  CHECK(r.exit_code == 0);
+  CHECK(r.err.find("rungs: wrote " + deck + " (the deck), " + report + " (the report)\n") !=
+        std::string::npos);
+  CHECK(r.err.find("rungs: run it: ngspice -b -r " + raw + " " + deck + " ") != std::string::npos);
+
+  CHECK(run_rungs("emit --analytic - -o " + deck + " -q", kAirCoax).err.empty());
+  auto to_stdout = run_rungs("emit --analytic - -o -", kAirCoax);
+  CHECK(to_stdout.err.find("wrote") == std::string::npos);
+  auto library = run_rungs("emit --analytic - --library -o " + deck, kAirCoax);
+  CHECK(library.err.find("(the subcircuits, to .include)") != std::string::npos);
+  CHECK(library.err.find("ngspice") == std::string::npos);
+
+  const fs::path spaced = dir / "with space";
+  fs::create_directories(spaced);
+  auto quoted = run_rungs("emit --analytic - -o '" + (spaced / "a.cir").string() + "'", kAirCoax);
+  CHECK(quoted.err.find("ngspice -b -r '" + (spaced / "a.raw").string() + "' '") !=
+        std::string::npos);
+  fs::remove_all(dir);
+}
+
+TEST_CASE("the command emit prints runs the deck in ngspice and keeps its voltages",
+          "[ngspice]") {
+  namespace fs = std::filesystem;
+  const fs::path dir = fs::temp_directory_path() / "rungs_cli_run_it";
+  fs::remove_all(dir);
+  fs::create_directories(dir);
+  const std::string deck = (dir / "air.cir").string();
+  auto r = run_rungs("emit --analytic - -o " + deck, kAirCoax);
+  REQUIRE(r.exit_code == 0);
+  const std::string marker = "rungs: run it: ";
+  const std::size_t at = r.err.find(marker);
+  REQUIRE(at != std::string::npos);
+  const std::size_t from = at + marker.size();
+  std::string command = r.err.substr(from, r.err.find(" (", from) - from);
+  INFO(command);
+  CHECK(std::system((command + " > " + (dir / "ngspice.log").string() + " 2>&1").c_str()) == 0);
+  std::ifstream raw(dir / "air.raw");
+  const std::string text((std::istreambuf_iterator<char>(raw)), std::istreambuf_iterator<char>());
+  CHECK(text.find("v(b)") != std::string::npos);
+  CHECK(text.find("Transient Analysis") != std::string::npos);
+  fs::remove_all(dir);
 }

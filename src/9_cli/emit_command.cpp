@@ -1,7 +1,11 @@
 // `rungs emit`: one description to a netlist, its reports and a depfile.
+#include <filesystem>
 #include <iostream>
+#include <string>
+#include <vector>
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include "7_report/plan_report.h"
 #include "8_project/depfile.h"
@@ -42,6 +46,38 @@ void write_emit_depfile(const std::string& depfile, const NetlistJob& job,
       depfile, [&](std::ostream& out) { out << text; }, false, true);
 }
 
+/// `path` as one word of a POSIX shell command line: as it is when it holds nothing a shell
+/// reads specially, else in single quotes.
+std::string shell_word(const std::string& path) {
+  const bool plain = !path.empty() && path.find_first_not_of(
+                                          "ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz"
+                                          "0123456789_./+,:=@%-") == std::string::npos;
+  if (plain) return path;
+  std::string quoted = "'";
+  for (char c : path) quoted += c == '\'' ? std::string("'\\''") : std::string(1, c);
+  return quoted + "'";
+}
+
+/// What a person needs after an emit: the files written and how to run the deck. Nothing
+/// when the netlist went to standard output (the terminal shows it already).
+std::vector<std::string> written_notes(const NetlistJob& job, const EmitOptions& options) {
+  if (job.output == "-") return {};
+  std::vector<std::string> written = {
+      fmt::format("{} ({})", job.output, job.library ? "the subcircuits, to .include" : "the deck")};
+  if (!job.report.empty() && job.report != "-")
+    written.push_back(fmt::format("{} (the report)", job.report));
+  if (!job.report_json.empty() && job.report_json != "-")
+    written.push_back(fmt::format("{} (the report as JSON)", job.report_json));
+  if (!options.depfile.empty()) written.push_back(fmt::format("{} (the depfile)", options.depfile));
+  std::vector<std::string> notes = {fmt::format("wrote {}", fmt::join(written, ", "))};
+  if (!job.library) {
+    const std::string raw = std::filesystem::path(job.output).replace_extension(".raw").string();
+    notes.push_back(fmt::format("run it: ngspice -b -r {} {} (every saved voltage into {})",
+                                shell_word(raw), shell_word(job.output), raw));
+  }
+  return notes;
+}
+
 }  // namespace
 
 int emit_command(const std::string& path, const EmitOptions& options) {
@@ -55,8 +91,10 @@ int emit_command(const std::string& path, const EmitOptions& options) {
   for (const JobOutput& output : job_outputs(job, netlist))
     write_atomically(output.path, output.write, output.is_netlist, options.force);
   if (!options.depfile.empty()) write_emit_depfile(options.depfile, job, netlist);
-  if (!options.quiet)
+  if (!options.quiet) {
     print_note(report::plan_summary(netlist.circuit, netlist.plan, verification_of(netlist)));
+    for (const std::string& note : written_notes(job, options)) print_note(note);
+  }
   return kExitOk;
 }
 
