@@ -8,6 +8,7 @@
 
 #include <fmt/format.h>
 
+#include "1_syntax/ast.h"
 #include "1_syntax/suggest.h"
 #include "1_syntax/units.h"
 #include "2_physics/constants.h"

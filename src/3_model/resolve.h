@@ -1,8 +1,11 @@
 // Resolving a parsed description into a circuit: units, models, options and topology.
 #pragma once
-#include "3_model/circuit.h"
-#include "1_syntax/ast.h"
 #include "1_syntax/diagnostics.h"
+#include "3_model/circuit.h"
+
+namespace rungs::syntax::ast {
+struct Description;  // 1_syntax/ast.h; declared here so that Spirit stays out of this header
+}
 
 namespace rungs::model {
 

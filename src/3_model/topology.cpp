@@ -4,6 +4,7 @@
 
 #include <fmt/format.h>
 
+#include "1_syntax/ast.h"
 #include "1_syntax/suggest.h"
 #include "1_syntax/text.h"
 #include "3_model/resolve.h"

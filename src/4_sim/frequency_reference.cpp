@@ -10,6 +10,7 @@
 #include <Eigen/Core>
 
 #include "3_model/edges.h"
+#include "4_sim/frequency_network.h"
 
 namespace rungs::sim {
 

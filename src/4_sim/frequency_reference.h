@@ -9,7 +9,7 @@
 #include <vector>
 
 #include "3_model/circuit.h"
-#include "4_sim/frequency_network.h"
+#include "4_sim/excitation.h"
 #include "4_sim/inverse_laplace.h"
 #include "4_sim/two_port.h"
 #include "4_sim/waveform.h"

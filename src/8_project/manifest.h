@@ -4,8 +4,12 @@
 #include <string_view>
 #include <vector>
 
-#include "1_syntax/ast.h"
+#include "1_syntax/input_file.h"
 #include "1_syntax/diagnostics.h"
+
+namespace rungs::syntax::ast {
+struct Description;  // 1_syntax/ast.h; declared here so that Spirit stays out of this header
+}
 
 namespace rungs::project {
 
