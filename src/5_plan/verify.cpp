@@ -3,6 +3,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <functional>
 #include <limits>
 #include <map>
 #include <memory>
@@ -11,6 +12,7 @@
 
 #include "1_syntax/invariant.h"
 #include "3_model/circuit.h"
+#include "5_plan/budget_split.h"
 #include "5_plan/error_estimate.h"
 #include "4_sim/error_measure.h"
 #include "4_sim/frequency_reference.h"
@@ -67,34 +69,65 @@ bool meets(double error, double error_estimate, double tolerance) {
   return error + error_estimate <= tolerance;
 }
 
+/// The line ends of a part, each node once: what an error is measured at and budgeted for.
+struct EndSet {
+  std::vector<std::size_t> node;           // into Response::nodes
+  std::vector<std::string> name;
+  std::vector<double> budget;              // the smallest tolerance of the lines that reach it
+  std::vector<std::vector<std::size_t>> of_line;  // per line: its ends, into the above
+};
+
+EndSet end_set(const model::Circuit& circuit, const Plan& plan, const sim::Response& exact) {
+  EndSet ends;
+  ends.of_line.resize(circuit.lines.size());
+  for (std::size_t k = 0; k < circuit.lines.size(); ++k)
+    for (const std::string* name : {&circuit.lines[k].near, &circuit.lines[k].far}) {
+      if (model::is_ground(*name)) continue;
+      const std::optional<std::size_t> i = exact.node_index(*name);
+      if (!i) continue;
+      const auto at = std::find(ends.node.begin(), ends.node.end(), *i);
+      const std::size_t e = static_cast<std::size_t>(at - ends.node.begin());
+      if (at == ends.node.end()) {
+        ends.node.push_back(*i);
+        ends.name.push_back(*name);
+        ends.budget.push_back(plan.lines[k].tolerance);
+      }
+      ends.budget[e] = std::min(ends.budget[e], plan.lines[k].tolerance);
+      if (std::find(ends.of_line[k].begin(), ends.of_line[k].end(), e) == ends.of_line[k].end())
+        ends.of_line[k].push_back(e);
+    }
+  return ends;
+}
+
 /// The errors at the line ends of the circuit, with the lines that have a ladder in `ladders`
 /// cut and the rest exact, and the figures' error estimate (as
 /// sim::measure_ladder_error computes both, which takes every line as a ladder).
 struct PartialErrors {
+  std::vector<double> end_errors;   // per end of the EndSet
+  EndWaves diff;                    // per end: the difference waveform (see EndWaves)
   std::vector<double> line_errors;  // per line: the larger of its two ends
   double error = 0.0;               // the largest of all
   double error_estimate = 0.0;
 };
 
 PartialErrors measure_partial(const model::Circuit& circuit, const sim::Response& exact,
-                         const std::vector<std::optional<LadderSpec>>& ladders,
-                         const sim::ReferenceOptions& options, sim::ResponseWorkspace& ws) {
+                              const EndSet& ends,
+                              const std::vector<std::optional<LadderSpec>>& ladders,
+                              const sim::ReferenceOptions& options, sim::ResponseWorkspace& ws) {
   const sim::Response lad = sim::frequency_response(circuit, ladders, exact.grid, options, &ws);
   PartialErrors m;
-  std::vector<double> node_error(exact.nodes.size(), -1.0);  // -1: not a line end
-  for (const model::Line& line : circuit.lines)
-    for (const std::string* name : {&line.near, &line.far}) {
-      if (model::is_ground(*name)) continue;
-      if (auto i = exact.node_index(*name)) node_error[*i] = 0.0;
-    }
+  m.end_errors.assign(ends.node.size(), 0.0);
+  m.diff.assign(ends.node.size(), {});
   double trunc_worst = 0.0;
-  for (std::size_t i = 0; i < node_error.size(); ++i) {
-    if (node_error[i] < 0.0) continue;
+  for (std::size_t e = 0; e < ends.node.size(); ++e) {
+    const std::size_t i = ends.node[e];
     for (std::size_t c = 0; c < exact.excitations.size(); ++c) {
       const double swing = exact.excitations[c].swing;
       if (!(std::abs(swing) > 0.0)) continue;
-      node_error[i] = std::max(
-          node_error[i], sim::compare_waveforms(exact.t, exact.v[c][i], lad.v[c][i], swing).error);
+      for (std::size_t j = 0; j < exact.t.size(); ++j)
+        m.diff[e].push_back((lad.v[c][i][j] - exact.v[c][i][j]) / swing);
+      m.end_errors[e] = std::max(
+          m.end_errors[e], sim::compare_waveforms(exact.t, exact.v[c][i], lad.v[c][i], swing).error);
       double trunc = 0.0;
       for (std::size_t j = 0; j < exact.coarse[c][i].size(); ++j) {
         const double fine = lad.v[c][i][2 * j] - exact.v[c][i][2 * j];
@@ -104,11 +137,9 @@ PartialErrors measure_partial(const model::Circuit& circuit, const sim::Response
       trunc_worst = std::max(trunc_worst, trunc / std::abs(swing));
     }
   }
-  for (const model::Line& line : circuit.lines) {
+  for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
     double e = 0.0;
-    for (const std::string* name : {&line.near, &line.far})
-      if (auto i = exact.node_index(*name); i && !model::is_ground(*name))
-        e = std::max(e, node_error[*i]);
+    for (const std::size_t end : ends.of_line[k]) e = std::max(e, m.end_errors[end]);
     m.line_errors.push_back(e);
     m.error = std::max(m.error, e);
   }
@@ -118,8 +149,9 @@ PartialErrors measure_partial(const model::Circuit& circuit, const sim::Response
 
 Verification verify_against(const model::Circuit& circuit, const Plan& plan,
                             const sim::Response& exact, const sim::ReferenceOptions& o,
-                            sim::ResponseWorkspace& ws, bool with_rule = true) {
-  const sim::LadderMeasurement planned =
+                            sim::ResponseWorkspace& ws, bool with_rule = true,
+                            sim::LadderMeasurement* measured = nullptr) {
+  sim::LadderMeasurement planned =
       sim::measure_ladder_error(circuit, exact, ladder_specs(plan, false), o, &ws);
   const sim::LadderMeasurement rule =
       with_rule ? sim::measure_ladder_error(circuit, exact, ladder_specs(plan, true), o, &ws)
@@ -142,28 +174,43 @@ Verification verify_against(const model::Circuit& circuit, const Plan& plan,
     if (std::abs(end.worst.overshoot_error) > std::abs(lv.overshoot_error))
       lv.overshoot_error = end.worst.overshoot_error;
   }
+  if (measured) *measured = std::move(planned);
   return v;
 }
 
-/// The smallest passing N of one line with the others exact (see plan_verified).
-/// One line's measured counts, kept across searches: N -> error + error estimate, that line alone a
-/// ladder (the rest exact), so a search at a tighter budget only measures counts not yet seen.
-using ErrorsByCount = std::map<int, double>;
+/// One part's measurements, kept across searches: per line, N -> its errors with that line
+/// alone a ladder (the rest exact), so a search at a tighter budget only measures counts not yet
+/// seen. One line's counts are measured by one thread at a time.
+struct PartMeasures {
+  const model::Circuit& circuit;
+  const sim::Response& exact;
+  const sim::ReferenceOptions& options;
+  const EndSet& ends;
+  const Plan& plan;
+  std::vector<std::map<int, PartialErrors>> seen;
 
-int search_line(const model::Circuit& circuit, const sim::Response& exact,
-                const sim::ReferenceOptions& o, sim::ResponseWorkspace& ws, std::size_t k,
-                const LinePlan& lp, double budget, ErrorsByCount& seen, bool scan) {
-  const auto passes = [&](int n) {
-    auto it = seen.find(n);
-    if (it == seen.end()) {
+  const PartialErrors& alone(std::size_t k, int n, sim::ResponseWorkspace& ws) {
+    n = std::clamp(n, 1, kVerifiedMaxSections);
+    auto it = seen[k].find(n);
+    if (it == seen[k].end()) {
       std::vector<std::optional<LadderSpec>> ladders(circuit.lines.size());
-      ladders[k] = LadderSpec{n, lp.shape};
-      const PartialErrors m = measure_partial(circuit, exact, ladders, o, ws);
-      it = seen.emplace(n, m.error + m.error_estimate).first;
+      ladders[k] = LadderSpec{n, plan.lines[k].shape};
+      it = seen[k].emplace(n, measure_partial(circuit, exact, ends, ladders, options, ws)).first;
     }
-    return it->second <= budget;
-  };
-  const int start = std::clamp(lp.sections, 1, kVerifiedMaxSections);
+    return it->second;
+  }
+};
+
+using Passes = std::function<bool(const PartialErrors&)>;
+
+/// The smallest N of line k, alone a ladder with the others exact, that `passes`:
+/// exponential steps from the plan's count bracket it, bisection narrows the bracket; with
+/// `scan`, the counts just below and twelve over the quarter below are tried as well (see
+/// plan_verified).
+int search_line(PartMeasures& pm, sim::ResponseWorkspace& ws, std::size_t k,
+                const Passes& accept, bool scan) {
+  const auto passes = [&](int n) { return accept(pm.alone(k, n, ws)); };
+  const int start = std::clamp(pm.plan.lines[k].sections, 1, kVerifiedMaxSections);
   int lo = 0, hi = 0;  // lo fails (0: none known), hi passes
   if (passes(start)) {
     hi = start;
@@ -216,7 +263,6 @@ int search_line(const model::Circuit& circuit, const sim::Response& exact,
   }
 }
 
-
 void closing_voltages_on(const model::Circuit& circuit, Plan& plan,
                          const sim::LaplaceGrid& grid, sim::ResponseWorkspace& ws) {
   plan.closing_voltage.assign(circuit.loads.size(), 0.0);
@@ -230,51 +276,193 @@ void closing_voltages_on(const model::Circuit& circuit, Plan& plan,
     plan.closing_voltage[r.switches[i].load] = r.switch_voltages[i];
 }
 
+/// The fixed (sections=) ladders' errors together, every other line exact; zero without any.
+PartialErrors fixed_errors(PartMeasures& pm, sim::ResponseWorkspace& ws) {
+  std::vector<std::optional<LadderSpec>> fixed(pm.circuit.lines.size());
+  bool any = false;
+  for (std::size_t j = 0; j < fixed.size(); ++j)
+    if (pm.plan.lines[j].fixed) {
+      fixed[j] = LadderSpec{std::max(1, pm.plan.lines[j].sections), pm.plan.lines[j].shape};
+      any = true;
+    }
+  if (any) return measure_partial(pm.circuit, pm.exact, pm.ends, fixed, pm.options, ws);
+  // No fixed ladder: a zero difference of the measured waveforms' size.
+  PartialErrors none;
+  none.end_errors.assign(pm.ends.node.size(), 0.0);
+  none.line_errors.assign(fixed.size(), 0.0);
+  std::size_t sources = 0;
+  for (const sim::Excitation& x : pm.exact.excitations) sources += std::abs(x.swing) > 0.0;
+  none.diff.assign(pm.ends.node.size(), std::vector<double>(sources * pm.exact.t.size(), 0.0));
+  return none;
+}
+
+/// The ends whose budget the fixed ladders leave too little of (kUsefulShare).
+std::vector<bool> left_to_fixed(const EndSet& ends, const PartialErrors& fixed) {
+  std::vector<bool> left(ends.node.size(), false);
+  for (std::size_t e = 0; e < left.size(); ++e)
+    left[e] = ends.budget[e] - fixed.end_errors[e] - fixed.error_estimate <
+              kUsefulShare * ends.budget[e];
+  return left;
+}
+
+/// Each line's own error at its planned count and its share of the budget at the end where it
+/// takes the most; each end's account; advice for the ends left to fixed ladders.
+void attribute(PartMeasures& pm, const PartialErrors& fixed, const std::vector<bool>& left,
+               const sim::LadderMeasurement& together, sim::ResponseWorkspace& ws,
+               Verification& v) {
+  const std::size_t n = pm.circuit.lines.size();
+  const EndSet& ends = pm.ends;
+  std::vector<std::vector<double>> own(n);
+  std::vector<const EndWaves*> diff(n);
+  for (std::size_t k = 0; k < n; ++k) {
+    const PartialErrors& alone = pm.alone(k, std::max(1, pm.plan.lines[k].sections), ws);
+    own[k] = alone.end_errors;
+    diff[k] = &alone.diff;
+  }
+  for (std::size_t e = 0; e < ends.node.size(); ++e) {
+    EndAccount acc{.node = ends.name[e], .budget = ends.budget[e], .fixed = fixed.end_errors[e],
+                   .superposed = 0.0, .error = 0.0, .left_to_fixed = left[e]};
+    std::vector<double> sum(fixed.diff[e].size(), 0.0);
+    for (std::size_t k = 0; k < n; ++k)
+      for (std::size_t j = 0; j < sum.size(); ++j) sum[j] += (*diff[k])[e][j];
+    acc.superposed = peak(sum);
+    for (const sim::EndError& end : together.ends)
+      if (end.node == acc.node) acc.error = std::max(acc.error, end.worst.error);
+    v.ends.push_back(acc);
+  }
+  for (std::size_t k = 0; k < n; ++k) {
+    std::size_t worst = 0;
+    for (std::size_t e = 1; e < ends.node.size(); ++e)
+      if (own[k][e] / ends.budget[e] > own[k][worst] / ends.budget[worst]) worst = e;
+    LineVerdict& lv = v.lines[k];
+    if (ends.node.empty()) continue;
+    lv.own_error = own[k][worst];
+    lv.share_node = ends.name[worst];
+    if (pm.plan.lines[k].fixed) {
+      lv.share = lv.own_error;  // taken as it is
+      continue;
+    }
+    // The planned lines' combined difference at that end (their own differences summed).
+    std::vector<double> planned(fixed.diff[worst].size(), 0.0);
+    for (std::size_t j = 0; j < n; ++j)
+      if (!pm.plan.lines[j].fixed)
+        for (std::size_t i = 0; i < planned.size(); ++i) planned[i] += (*diff[j])[worst][i];
+    const double combined = peak(planned);
+    const double usable =
+        std::max(0.0, ends.budget[worst] - fixed.end_errors[worst] - v.error_estimate);
+    lv.share = combined > 0.0 ? usable * own[k][worst] / combined : usable;
+  }
+  for (std::size_t e = 0; e < ends.node.size(); ++e) {
+    if (!left[e]) continue;
+    std::size_t culprit = n;
+    for (std::size_t k = 0; k < n; ++k)
+      if (pm.plan.lines[k].fixed && (culprit == n || own[k][e] > own[culprit][e])) culprit = k;
+    if (culprit == n) continue;
+    // Enough sections that the fixed line alone takes at most half of the end's budget.
+    const double half = ends.budget[e] / 2.0;
+    const int sections = search_line(
+        pm, ws, culprit,
+        [&](const PartialErrors& m) { return m.end_errors[e] + m.error_estimate <= half; },
+        false);
+    v.advice.push_back(FixedAdvice{.line = culprit, .node = ends.name[e],
+                                   .own_error = own[culprit][e], .budget = ends.budget[e],
+                                   .sections = sections});
+  }
+}
+
 Verification verify_part(const model::Circuit& circuit, const Plan& plan) {
   const sim::ReferenceOptions o = reference_options(plan);
   sim::ResponseWorkspace ws;
   const sim::Response exact = sim::exact_reference(circuit, o, &ws);
-  return verify_against(circuit, plan, exact, o, ws);
+  const EndSet ends = end_set(circuit, plan, exact);
+  PartMeasures pm{circuit, exact, o, ends, plan, {}};
+  pm.seen.resize(circuit.lines.size());
+  sim::LadderMeasurement together;
+  Verification v = verify_against(circuit, plan, exact, o, ws, true, &together);
+  const PartialErrors fixed = fixed_errors(pm, ws);
+  attribute(pm, fixed, left_to_fixed(ends, fixed), together, ws, v);
+  return v;
 }
 
-std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
-                                                 const Plan& analytic, ThreadPool& pool) {
-  Plan plan = analytic;
-  const sim::ReferenceOptions o = reference_options(plan);
-  sim::ResponseWorkspace ws;
-  const sim::Response exact = sim::exact_reference(circuit, o, &ws);
+/// Line k's count when it is the only ladder: the smallest N whose own errors fit every end's
+/// budget less the fixed ladders' part (the whole budget where that is left to them).
+int alone_count(PartMeasures& pm, const PartialErrors& fixed, const std::vector<bool>& left,
+                std::size_t k, sim::ResponseWorkspace& ws) {
+  return search_line(
+      pm, ws, k,
+      [&](const PartialErrors& m) {
+        for (std::size_t e = 0; e < m.end_errors.size(); ++e) {
+          const double room = pm.ends.budget[e] - (left[e] ? 0.0 : fixed.end_errors[e]);
+          if (m.end_errors[e] + m.error_estimate > room) return false;
+        }
+        return true;
+      },
+      true);
+}
 
+/// Splits every end's budget between the planned lines that reach it (split_budget) and sets
+/// their counts; false when no split meets every end.
+bool split_counts(PartMeasures& pm, Plan& plan, const PartialErrors& fixed,
+                  const std::vector<bool>& left, const std::vector<std::size_t>& adjustable,
+                  ThreadPool& pool,
+                  sim::ResponseWorkspace& ws) {
+  SplitProblem p;
+  p.budget = pm.ends.budget;
+  p.fixed = fixed.diff;
+  p.estimate = fixed.error_estimate;
+  for (const auto& counts : pm.seen)
+    for (const auto& [count, m] : counts) p.estimate = std::max(p.estimate, m.error_estimate);
+  p.adjustable = adjustable;
+  for (const std::size_t k : adjustable) p.start.push_back(plan.lines[k].sections);
+  p.max_sections = kVerifiedMaxSections;
+  p.elements = [&](std::size_t k, int count) {
+    LinePlan trial = plan.lines[k];
+    set_sections(pm.circuit.lines[k], trial, count);
+    return trial.elements;
+  };
+  p.own = [&](std::size_t k, int count) -> const EndWaves& {
+    return pm.alone(k, count, ws).diff;
+  };
+  p.prefetch = [&](const std::vector<std::pair<std::size_t, int>>& trial) {
+    std::vector<std::size_t> items(trial.size());
+    std::iota(items.begin(), items.end(), std::size_t{0});
+    for_each_item(pool, items, [&](std::size_t i, sim::ResponseWorkspace& own) {
+      pm.alone(trial[i].first, trial[i].second, own);
+    });
+  };
+  // Every line within its tolerance with all ladders in place, except those whose end is left
+  // to the fixed ladders.
+  std::map<std::vector<int>, bool> accepted;
+  p.accept = [&](const std::vector<int>& counts) {
+    auto it = accepted.find(counts);
+    if (it != accepted.end()) return it->second;
+    Plan trial = plan;
+    for (std::size_t i = 0; i < adjustable.size(); ++i)
+      set_sections(pm.circuit.lines[adjustable[i]], trial.lines[adjustable[i]], counts[i]);
+    const Verification v = verify_against(pm.circuit, trial, pm.exact, pm.options, ws, false);
+    bool ok = true;
+    for (std::size_t k = 0; k < v.lines.size(); ++k)
+      ok = ok && (v.lines[k].adequate || std::any_of(pm.ends.of_line[k].begin(),
+                                                     pm.ends.of_line[k].end(),
+                                                     [&](std::size_t e) { return left[e]; }));
+    return accepted.emplace(counts, ok).first->second;
+  };
+  const SplitResult r = split_budget(p);
+  for (std::size_t i = 0; i < adjustable.size(); ++i)
+    set_sections(pm.circuit.lines[adjustable[i]], plan.lines[adjustable[i]], r.sections[i]);
+  return r.met;
+}
+
+/// While a line fails with every ladder in place although the split met every end (its errors
+/// did not add as the split took them to), the planned lines that meet it (it and those sharing
+/// one of its ends) search again alone at a smaller part of their tolerance: by the worst
+/// failing line's ratio of budget to error, between a tenth and a half less each round.
+void tighten_by_measuring(PartMeasures& pm, Plan& plan, const std::vector<std::size_t>& adjustable,
+                          const std::vector<bool>& owed_to_fixed, ThreadPool& pool,
+                          sim::ResponseWorkspace& ws, Verification& v) {
+  const model::Circuit& circuit = pm.circuit;
   const std::size_t n = circuit.lines.size();
-  std::vector<std::size_t> adjustable;
-  for (std::size_t j = 0; j < n; ++j)
-    if (!plan.lines[j].fixed && plan.lines[j].rise > 0.0) adjustable.push_back(j);
-  std::vector<ErrorsByCount> seen(n);
-  std::vector<double> share(n, 1.0);  // of each line's tolerance, its budget alone
-  // Each line alone: the searches share nothing but the reference, so they run side by side.
-  for_each_item(pool, adjustable, [&](std::size_t k, sim::ResponseWorkspace& own) {
-    LinePlan& lp = plan.lines[k];
-    set_sections(circuit.lines[k], lp,
-                 search_line(circuit, exact, o, own, k, lp, lp.tolerance, seen[k], true));
-  });
-
-  // Together: a line may pass alone and fail beside the others' ladders, whose errors add at
-  // the nodes they share.
-  Verification v = verify_against(circuit, plan, exact, o, ws, false);
-  // A line that fails with only the fixed ladders in place (every planned line exact) fails
-  // whatever the planned counts are: it is left to the fixed lines' sections=.
-  std::vector<bool> owed_to_fixed(n, false);
-  if (adjustable.size() < n &&
-      std::any_of(v.lines.begin(), v.lines.end(), [](const LineVerdict& l) { return !l.adequate; })) {
-    std::vector<std::optional<LadderSpec>> fixed(n);
-    for (std::size_t j = 0; j < n; ++j)
-      if (plan.lines[j].fixed) fixed[j] = LadderSpec{std::max(1, plan.lines[j].sections), plan.lines[j].shape};
-    const PartialErrors f = measure_partial(circuit, exact, fixed, o, ws);
-    for (std::size_t k = 0; k < n; ++k)
-      owed_to_fixed[k] = !meets(f.line_errors[k], f.error_estimate, plan.lines[k].tolerance);
-  }
-  // While a line fails, the planned lines that meet it (it and those sharing one of its
-  // ends) search again alone at a smaller share of their tolerance: by the worst failing
-  // line's ratio of budget to error, between a tenth and a half less each round.
+  std::vector<double> share(n, 1.0);
   for (int round = 0; round < 24; ++round) {
     std::vector<bool> tighten(n, false);
     double ratio = 1.0;
@@ -291,7 +479,7 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
                      other.far == line.near || other.far == line.far;
       }
     }
-    if (!failing) break;
+    if (!failing) return;
     const double factor = std::clamp(ratio, 0.5, 0.9);
     std::vector<std::size_t> again;
     for (const std::size_t j : adjustable)
@@ -300,17 +488,55 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
     for (std::size_t j = 0; j < n; ++j) before[j] = plan.lines[j].sections;
     for_each_item(pool, again, [&](std::size_t j, sim::ResponseWorkspace& own) {
       share[j] *= factor;
-      LinePlan& lp = plan.lines[j];
-      set_sections(circuit.lines[j], lp,
-                   search_line(circuit, exact, o, own, j, lp, share[j] * lp.tolerance, seen[j],
-                               false));
+      const double budget = share[j] * plan.lines[j].tolerance;
+      const int count = search_line(
+          pm, own, j,
+          [&](const PartialErrors& m) { return m.error + m.error_estimate <= budget; }, false);
+      set_sections(circuit.lines[j], plan.lines[j], std::max(count, before[j]));
     });
     bool raised = false;
     for (std::size_t j = 0; j < n; ++j) raised = raised || plan.lines[j].sections != before[j];
-    if (raised) v = verify_against(circuit, plan, exact, o, ws, false);
+    if (raised) v = verify_against(circuit, plan, pm.exact, pm.options, ws, false);
   }
-  v = verify_against(circuit, plan, exact, o, ws);
+}
+
+std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
+                                                 const Plan& analytic, ThreadPool& pool) {
+  Plan plan = analytic;
+  const sim::ReferenceOptions o = reference_options(plan);
+  sim::ResponseWorkspace ws;
+  const sim::Response exact = sim::exact_reference(circuit, o, &ws);
+  const EndSet ends = end_set(circuit, plan, exact);
+  PartMeasures pm{circuit, exact, o, ends, plan, {}};
+  pm.seen.resize(circuit.lines.size());
+
+  const std::size_t n = circuit.lines.size();
+  std::vector<std::size_t> adjustable;
+  for (std::size_t j = 0; j < n; ++j)
+    if (!plan.lines[j].fixed && plan.lines[j].rise > 0.0) adjustable.push_back(j);
+  // The fixed ladders' errors are taken as they are; the planned lines share what is left.
+  const PartialErrors fixed = fixed_errors(pm, ws);
+  const std::vector<bool> left = left_to_fixed(ends, fixed);
+  // Each line alone first (the searches share nothing but the reference, so they run side by
+  // side): no split can give a line fewer sections than it needs with the others exact.
+  for_each_item(pool, adjustable, [&](std::size_t k, sim::ResponseWorkspace& own) {
+    set_sections(circuit.lines[k], plan.lines[k], alone_count(pm, fixed, left, k, own));
+  });
+  split_counts(pm, plan, fixed, left, adjustable, pool, ws);
+
+  // Together: the split takes errors to add where ladders meet; the measurement with every
+  // ladder in place says whether they did.
+  Verification v = verify_against(circuit, plan, exact, o, ws, false);
+  std::vector<bool> owed_to_fixed(n, false);
+  for (std::size_t k = 0; k < n; ++k)
+    for (const std::size_t e : ends.of_line[k])
+      owed_to_fixed[k] = owed_to_fixed[k] || (left[e] && !v.lines[k].adequate);
+  tighten_by_measuring(pm, plan, adjustable, owed_to_fixed, pool, ws, v);
+
+  sim::LadderMeasurement together;
+  v = verify_against(circuit, plan, exact, o, ws, true, &together);
   for (std::size_t k = 0; k < n; ++k) v.lines[k].owed_to_fixed = owed_to_fixed[k];
+  attribute(pm, fixed, left, together, ws, v);
 
   closing_voltages_on(circuit, plan, exact.grid, ws);
   return {plan, v};
@@ -326,6 +552,11 @@ void merge_part(const sim::CircuitPart& part, const Plan& from, Plan& into) {
 void merge_part(const sim::CircuitPart& part, const Verification& from, Verification& into) {
   for (std::size_t j = 0; j < part.lines.size(); ++j) into.lines[part.lines[j]] = from.lines[j];
   into.error_estimate = std::max(into.error_estimate, from.error_estimate);
+  into.ends.insert(into.ends.end(), from.ends.begin(), from.ends.end());
+  for (FixedAdvice a : from.advice) {
+    a.line = part.lines[a.line];
+    into.advice.push_back(a);
+  }
   into.reference_within_target = into.reference_within_target && from.reference_within_target;
 }
 

@@ -2,6 +2,7 @@
 // estimated, and the smallest count that meets each line's tolerance.
 #pragma once
 #include <optional>
+#include <string>
 #include <utility>
 #include <vector>
 
@@ -26,6 +27,39 @@ struct LineVerdict {
   /// The line fails even with every planned line exact: the fixed ladders (sections=) of the
   /// lines it meets cause its error, so the planner left the others as they were.
   bool owed_to_fixed = false;
+  /// The line's own contribution: the largest error its ladder causes alone, every other line
+  /// exact, at the line end where it takes the most of the budget (`share_node`).
+  double own_error = 0.0;
+  /// The part of that end's budget the line may take: what the fixed ladders and the measure's
+  /// estimate leave (the usable budget), times its own error over the peak of the planned lines'
+  /// combined difference there. own_error <= share exactly when their combined difference fits
+  /// the usable budget. A fixed line's share is its own error, taken as it is.
+  double share = 0.0;
+  std::string share_node;
+};
+
+/// One line end's budget and what takes it (fractions of the swing).
+struct EndAccount {
+  std::string node;
+  double budget = 0.0;    // the smallest tolerance of the lines that reach it
+  double fixed = 0.0;     // the fixed ladders' error here, together, the other lines exact
+  /// The first-order prediction of `error`: the peak of the sum of every line's own
+  /// difference waveform here (each ladder alone, the other lines exact).
+  double superposed = 0.0;
+  double error = 0.0;     // measured with every ladder in place
+  /// The fixed ladders leave under a quarter of the budget: the planned lines were not raised
+  /// for this end.
+  bool left_to_fixed = false;
+};
+
+/// A fixed line that takes most of an end's budget, and the count at which it alone would take
+/// half of it (measured).
+struct FixedAdvice {
+  std::size_t line = 0;  // into circuit.lines
+  std::string node;
+  double own_error = 0.0;
+  double budget = 0.0;
+  int sections = 0;
 };
 
 struct Verification {
@@ -34,6 +68,8 @@ struct Verification {
   double error_estimate = 0.0;
   /// Whether the exact reference met its target (the smallest tolerance over 20).
   bool reference_within_target = false;
+  std::vector<EndAccount> ends;  // every line end, once
+  std::vector<FixedAdvice> advice;
 };
 
 /// Each connected part of the circuit (sim::connected_parts) is measured on its own, against its

@@ -32,6 +32,38 @@ std::string table(const std::vector<std::vector<std::string>>& rows) {
   return out;
 }
 
+/// How the budget was shared, whether the lines' own errors added up as predicted, and which
+/// fixed line to change where it leaves the others too little.
+std::string budget_notes(const model::Circuit& circuit, const plan::Verification& v) {
+  std::string out =
+      "own error: the line's ladder alone, every other line exact, at the end named under "
+      "\"at\", where it takes the most of the budget; share: the error it may have there, "
+      "the budget the fixed lines leave times its own error over the peak of the planned lines' "
+      "differences added together (own error within share: their added differences fit the budget); a fixed "
+      "line's share is its own error\n";
+  double worst = 0.0;
+  const plan::EndAccount* off = nullptr;
+  for (const plan::EndAccount& end : v.ends)
+    if (end.error - end.superposed > worst) {
+      worst = end.error - end.superposed;
+      off = &end;
+    }
+  if (off && worst > v.error_estimate)
+    out += fmt::format("superposition: at {} the error with every ladder in place is {}, {} "
+                       "above the sum of the lines' own differences ({}); the counts were "
+                       "checked by measuring them together\n",
+                       off->node, percent(off->error), percent(worst), percent(off->superposed));
+  else
+    out += "superposition: at every line end the error with every ladder in place is within "
+           "the sum of the lines' own differences (and the estimate)\n";
+  for (const plan::FixedAdvice& a : v.advice)
+    out += fmt::format("advice: at {} the fixed line {} alone takes {} of the {} budget, leaving "
+                       "the other lines too little; with sections={} it would take half (measured)\n",
+                       a.node, circuit.lines[a.line].name, percent(a.own_error),
+                       percent(a.budget), a.sections);
+  return out;
+}
+
 }  // namespace
 
 std::vector<std::string> cautions(const model::Circuit& circuit, const plan::Plan& plan,
@@ -90,7 +122,8 @@ std::string plan_text(const model::Circuit& circuit, const plan::Plan& plan,
       {"line", "model", "Z0/ohm", "delay/ns", "shape", "sections", "L/nH", "C/pF", "fc/GHz",
        "knee/GHz", "fc/knee", "predicted", "rule", "rule predicted", "elements"}};
   if (verification) {
-    for (const char* heading : {"error", "rule error", "adequate"}) rows.front().push_back(heading);
+    for (const char* heading : {"error", "own error", "share", "at", "rule error", "adequate"})
+      rows.front().push_back(heading);
   }
   for (std::size_t i = 0; i < circuit.lines.size(); ++i) {
     const model::Line& line = circuit.lines[i];
@@ -105,6 +138,9 @@ std::string plan_text(const model::Circuit& circuit, const plan::Plan& plan,
     if (verification) {
       const plan::LineVerdict& v = verification->lines[i];
       rows.back().push_back(percent(v.error));
+      rows.back().push_back(percent(v.own_error));
+      rows.back().push_back(percent(v.share));
+      rows.back().push_back(v.share_node);
       rows.back().push_back(percent(v.rule_error));
       rows.back().push_back(v.adequate ? "yes" : "NO");
     }
@@ -117,6 +153,7 @@ std::string plan_text(const model::Circuit& circuit, const plan::Plan& plan,
                        "accuracy {} of the swing): the largest difference at any line end over "
                        "the window, over the drive's swing\n",
                        percent(verification->error_estimate));
+  if (verification) out += budget_notes(circuit, *verification);
   for (std::size_t i = 0; i < circuit.lines.size(); ++i) {
     if (plan.lines[i].sections > kIdealLineAdvice)
       out += fmt::format("advice: line {} needs {} sections; a ladder this long is slow to "
@@ -167,14 +204,40 @@ std::string plan_json(const model::Circuit& circuit, const plan::Plan& plan,
           .key("delay_error").value(v.delay_error)
           .key("overshoot_error").value(v.overshoot_error)
           .key("rule_error").value(v.rule_error)
-          .key("adequate").value(v.adequate);
+          .key("adequate").value(v.adequate)
+          .key("share").value(v.share)
+          .key("own_error").value(v.own_error)
+          .key("share_node").value(v.share_node);
     }
     json.end_object();
   }
   json.end_array();
   json.key("elements").value(plan.elements);
   json.key("verified").value(verification != nullptr);
-  if (verification) json.key("accuracy").value(verification->error_estimate);
+  if (verification) {
+    json.key("accuracy").value(verification->error_estimate);
+    json.key("ends").begin_array();
+    for (const plan::EndAccount& end : verification->ends)
+      json.begin_object()
+          .key("node").value(end.node)
+          .key("budget").value(end.budget)
+          .key("fixed_error").value(end.fixed)
+          .key("superposed_error").value(end.superposed)
+          .key("error").value(end.error)
+          .key("left_to_fixed").value(end.left_to_fixed)
+          .end_object();
+    json.end_array();
+    json.key("advice").begin_array();
+    for (const plan::FixedAdvice& a : verification->advice)
+      json.begin_object()
+          .key("line").value(circuit.lines[a.line].name)
+          .key("node").value(a.node)
+          .key("own_error").value(a.own_error)
+          .key("budget").value(a.budget)
+          .key("sections").value(a.sections)
+          .end_object();
+    json.end_array();
+  }
   auto maybe = [&](double v) { return peak.computed ? std::optional<double>(v) : std::nullopt; };
   json.key("peak_ratio").value(maybe(peak.ratio));
   json.key("peak_voltage").value(maybe(peak.voltage));

@@ -37,7 +37,7 @@ PlotFile waveform_chart(const plan::NodeTraces& traces) {
 }
 
 PlotFile error_chart(const model::Line& line, const plan::LinePlan& lp,
-                     const plan::ErrorCurve& measured) {
+                     const plan::ErrorCurve& measured, const plan::LineVerdict* verdict) {
   PlotSeries curve;
   curve.label = "measured error";
   curve.colour = kExactColour;
@@ -56,17 +56,24 @@ PlotFile error_chart(const model::Line& line, const plan::LinePlan& lp,
                            fmt::format("budget {:g} %", 100.0 * lp.tolerance), "#c0392b"},
                  PlotGuide{true, static_cast<double>(lp.sections),
                            fmt::format("chosen N = {}", lp.sections), "#27ae60"}};
+  if (verdict && verdict->share > 0.0)
+    spec.guides.push_back(PlotGuide{false, 100.0 * verdict->share,
+                                    fmt::format("share {:.3g} % at {}", 100.0 * verdict->share,
+                                                verdict->share_node),
+                                    "#8e44ad"});
   return {fmt::format("error_{}.svg", emit::sanitize_name(line.name)), svg_line_chart(spec)};
 }
 
 }  // namespace
 
 std::vector<PlotFile> plan_plots(const model::Circuit& circuit, const plan::Plan& plan,
-                                 const plan::PlanCurves& curves) {
+                                 const plan::PlanCurves& curves,
+                                 const plan::Verification* verification) {
   std::vector<PlotFile> files;
   for (const plan::NodeTraces& traces : curves.loads) files.push_back(waveform_chart(traces));
   for (std::size_t k = 0; k < circuit.lines.size() && k < curves.lines.size(); ++k)
-    files.push_back(error_chart(circuit.lines[k], plan.lines[k], curves.lines[k]));
+    files.push_back(error_chart(circuit.lines[k], plan.lines[k], curves.lines[k],
+                                verification ? &verification->lines[k] : nullptr));
   return files;
 }
 

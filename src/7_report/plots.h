@@ -6,6 +6,7 @@
 #include "3_model/circuit.h"
 #include "5_plan/plan.h"
 #include "5_plan/plan_curves.h"
+#include "5_plan/verify.h"
 
 namespace rungs::report {
 
@@ -17,8 +18,10 @@ struct PlotFile {
 
 /// Draws `curves` (plan::measure_plan_curves): for each load node, the exact and the ladder
 /// waveforms over the window; for each line, its measured whole-circuit error against its
-/// section count with the budget and the chosen N marked. Draws only; measures nothing.
+/// section count with the budget and the chosen N marked, and with a verification the line's
+/// share of the budget. Draws only; measures nothing.
 std::vector<PlotFile> plan_plots(const model::Circuit& circuit, const plan::Plan& plan,
-                                 const plan::PlanCurves& curves);
+                                 const plan::PlanCurves& curves,
+                                 const plan::Verification* verification = nullptr);
 
 }  // namespace rungs::report

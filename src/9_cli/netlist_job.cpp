@@ -185,7 +185,8 @@ void write_plots(const std::string& folder, const PreparedNetlist& netlist) {
   std::vector<report::PlotFile> plots;
   try {
     plots = report::plan_plots(netlist.circuit, netlist.plan,
-                               plan::measure_plan_curves(netlist.circuit, netlist.plan));
+                               plan::measure_plan_curves(netlist.circuit, netlist.plan),
+                               verification_of(netlist));
   } catch (const std::exception& e) {
     throw ReferenceFailed(fmt::format("cannot draw the charts: {}", e.what()));
   }
