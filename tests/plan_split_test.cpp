@@ -79,17 +79,18 @@ bool all_within(const Circuit& c, const Plan& plan, const rungs::sim::LadderMeas
   return true;
 }
 
-/// The smallest total element count over every combination of counts from 1 to `top` whose
-/// every line end is within budget, measured with all ladders in place (exhaustive search).
-long long exhaustive_minimum(const Circuit& c, const Plan& plan, int top) {
+/// The smallest total element count under `bound` over every combination of counts from 1 to
+/// `top` whose every line end is within budget, measured with all ladders in place (exhaustive
+/// search, cut where a partial total already reaches the best found); `bound` if none is.
+long long exhaustive_minimum(const Circuit& c, const Plan& plan, int top, long long bound) {
   const rungs::sim::ReferenceOptions o = rungs::plan::reference_options(plan);
   rungs::sim::ResponseWorkspace ws;
   const rungs::sim::Response exact = rungs::sim::exact_reference(c, o, &ws);
   const std::size_t n = c.lines.size();
-  long long best = -1;
+  long long best = bound;
   std::vector<int> counts(n, 1);
   const std::function<void(std::size_t, long long)> walk = [&](std::size_t k, long long total) {
-    if (best >= 0 && total >= best) return;  // cannot beat what is found
+    if (total >= best) return;  // cannot beat what is found
     if (k == n) {
       if (all_within(c, plan, measure(c, plan, counts, exact, o, ws))) best = total;
       return;
@@ -116,8 +117,9 @@ void check_near_minimum(const Circuit& c, int top) {
   const rungs::sim::ReferenceOptions o = rungs::plan::reference_options(plan);
   rungs::sim::ResponseWorkspace ws;
   const rungs::sim::Response exact = rungs::sim::exact_reference(c, o, &ws);
-  CHECK(all_within(c, plan, measure(c, plan, counts, exact, o, ws)));
-  const long long minimum = exhaustive_minimum(c, plan, top);
+  REQUIRE(all_within(c, plan, measure(c, plan, counts, exact, o, ws)));
+  // The planner's counts pass, so the minimum is at most their total.
+  const long long minimum = exhaustive_minimum(c, plan, top, total);
   INFO("planner " << total << " elements, exhaustive minimum " << minimum);
   REQUIRE(minimum > 0);
   CHECK(double(total) <= 1.2 * double(minimum));
@@ -164,7 +166,8 @@ TEST_CASE("split_budget on error curves of known form comes within 1.2x of the e
   CHECK(double(total) <= 1.2 * double(best));
 }
 
-TEST_CASE("an end the fixed ladders leave too little of is left to them, not met by raising the others") {
+TEST_CASE("an end the fixed ladders leave too little of is left to them: the others add at most a "
+          "quarter of its budget") {
   const std::vector<std::vector<double>> a = {{1.0}};
   SplitProblem p;
   p.budget = {0.02};
@@ -184,7 +187,22 @@ TEST_CASE("an end the fixed ladders leave too little of is left to them, not met
   const rungs::plan::SplitResult r = rungs::plan::split_budget(p);
   REQUIRE(r.left_to_fixed.size() == 1);
   CHECK(r.left_to_fixed[0]);
-  CHECK(r.sections[0] == 8);
+  // By exhaustive search: the smallest N whose peak with the fixed part stays within 1.8 % +
+  // a quarter of 2 %, and the smallest that would meet the 2 % itself (the count a neighbour
+  // would be inflated to).
+  const auto peak_with_fixed = [&](int n) {
+    const EndWaves own = synthetic(a, 0, n);
+    double worst = 0.0;
+    for (const double x : own[0]) worst = std::max(worst, std::abs(0.018 + x));
+    return worst;
+  };
+  int allowed = 1, whole = 1;
+  while (peak_with_fixed(allowed) > 0.023) ++allowed;
+  while (peak_with_fixed(whole) > 0.02 && whole < 100000) ++whole;
+  INFO("split " << r.sections[0] << ", smallest within the allowance " << allowed
+                << ", within the budget itself " << whole);
+  CHECK(r.sections[0] == allowed);
+  CHECK(r.sections[0] < whole);
 }
 
 TEST_CASE("a trunk and two branches: the planner's elements within 1.2x of the exhaustive minimum",

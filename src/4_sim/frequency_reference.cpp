@@ -91,17 +91,6 @@ double fastest_ramp(const model::Circuit& circuit, const ReferenceOptions& optio
   return fastest;
 }
 
-/// The smallest even number at least k whose only prime factors are 2, 3 and 5: the FFT of
-/// 4k points then runs in radix-2, -3 and -5 passes only.
-std::size_t fft_friendly(std::size_t k) {
-  for (std::size_t c = std::max<std::size_t>(k + (k & 1), 2);; c += 2) {
-    std::size_t r = c;
-    for (const std::size_t p : {2, 3, 5})
-      while (r % p == 0) r /= p;
-    if (r == 1) return c;
-  }
-}
-
 double aliasing_for(double target) {
   return std::clamp(target / 100.0, 1e-12, 1e-5);
 }
@@ -310,6 +299,15 @@ Response frequency_response(const model::Circuit& circuit,
   for (std::size_t j = 0; j < samples; ++j) r.t[j] = h * static_cast<double>(j);
   invert_spectra(network, work, options, initial, spectra, r);
   return r;
+}
+
+std::size_t fft_friendly(std::size_t k) {
+  for (std::size_t c = std::max<std::size_t>(k + (k & 1), 2);; c += 2) {
+    std::size_t r = c;
+    for (const std::size_t p : {2, 3, 5})
+      while (r % p == 0) r /= p;
+    if (r == 1) return c;
+  }
 }
 
 LaplaceGrid initial_reference_grid(const model::Circuit& circuit,

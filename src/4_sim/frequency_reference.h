@@ -124,6 +124,10 @@ Response frequency_response(const model::Circuit& circuit,
 Response exact_reference(const model::Circuit& circuit, const ReferenceOptions& options,
                          ResponseWorkspace* workspace = nullptr);
 
+/// The smallest even number at least k whose only prime factors are 2, 3 and 5: the FFT of
+/// 4k points then runs in radix-2, -3 and -5 passes only.
+std::size_t fft_friendly(std::size_t k);
+
 /// The grid exact_reference starts from, for planning the work.
 LaplaceGrid initial_reference_grid(const model::Circuit& circuit,
                                    const ReferenceOptions& options);

@@ -19,13 +19,17 @@ EndWaves summed(const SplitProblem& p, const std::vector<int>& counts) {
   return sum;
 }
 
-/// Every end's error over its budget (negative: room left); ends left to the fixed ladders
-/// count as zero.
+/// The error each end may have (allowed_error).
+double allowed(const SplitProblem& p, const std::vector<bool>& left, std::size_t e) {
+  return allowed_error(p.budget[e], peak(p.fixed[e]), left[e]);
+}
+
+/// Every end's error over what it may have (negative: room left).
 std::vector<double> excess(const SplitProblem& p, const std::vector<bool>& left,
                            const EndWaves& sum) {
   std::vector<double> out(p.budget.size(), 0.0);
   for (std::size_t e = 0; e < out.size(); ++e)
-    if (!left[e]) out[e] = peak(sum[e]) + p.estimate - p.budget[e];
+    out[e] = peak(sum[e]) + p.estimate - allowed(p, left, e);
   return out;
 }
 
@@ -47,11 +51,10 @@ double over_after(const SplitProblem& p, const std::vector<bool>& left, const En
   const EndWaves& after = p.own(p.adjustable[i], to);
   double total = 0.0;
   for (std::size_t e = 0; e < sum.size(); ++e) {
-    if (left[e]) continue;
     double worst = 0.0;
     for (std::size_t j = 0; j < sum[e].size(); ++j)
       worst = std::max(worst, std::abs(sum[e][j] - before[e][j] + after[e][j]));
-    total += std::max(0.0, worst + p.estimate - p.budget[e]);
+    total += std::max(0.0, worst + p.estimate - allowed(p, left, e));
   }
   return total;
 }
@@ -104,20 +107,27 @@ bool within(const std::vector<double>& ex) {
   return std::all_of(ex.begin(), ex.end(), [](double x) { return x <= 0.0; });
 }
 
-/// Lowers each line, the largest ladder first, to the smallest count at which every end stays
-/// within budget with the others as they are.
-void lower_by_bisection(const SplitProblem& p, const std::vector<bool>& left,
-                        std::vector<int>& counts) {
-  const auto passes = [&](const std::vector<int>& trial) {
-    return p.accept ? p.accept(trial) : within(excess(p, left, trial));
-  };
+}  // namespace
+
+void lower_each(const std::vector<int>& floor,
+                const std::function<long long(std::size_t i, int n)>& elements,
+                const std::function<bool(const std::vector<int>&)>& passes,
+                std::vector<int>& counts) {
   std::vector<std::size_t> order(counts.size());
   for (std::size_t i = 0; i < order.size(); ++i) order[i] = i;
   std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
-    return p.elements(p.adjustable[a], counts[a]) > p.elements(p.adjustable[b], counts[b]);
+    return elements(a, counts[a]) > elements(b, counts[b]);
   });
   for (const std::size_t i : order) {
-    int lo = p.start[i] - 1, hi = counts[i];  // hi passes; lo is below the start
+    int hi = counts[i];  // passes
+    int lo = std::min(floor[i], hi) - 1;
+    // Below the floor while it passes (the floor may be a coarser measurement's).
+    while (lo >= 1) {
+      counts[i] = lo;
+      if (!passes(counts)) break;
+      hi = lo;
+      lo = lo / 2;
+    }
     while (hi - lo > 1) {
       const int mid = lo + (hi - lo) / 2;
       counts[i] = mid;
@@ -127,12 +137,32 @@ void lower_by_bisection(const SplitProblem& p, const std::vector<bool>& left,
   }
 }
 
+namespace {
+
+/// Lowers each line as lower_each does, from the start counts, with `accept` or else the
+/// prediction deciding.
+void lower_by_bisection(const SplitProblem& p, const std::vector<bool>& left,
+                        std::vector<int>& counts) {
+  lower_each(
+      p.start, [&](std::size_t i, int n) { return p.elements(p.adjustable[i], n); },
+      [&](const std::vector<int>& trial) {
+        for (std::size_t i = 0; i < trial.size(); ++i)
+          if (i < p.firm.size() && p.firm[i] && trial[i] < p.start[i]) return false;
+        return p.accept ? p.accept(trial) : within(excess(p, left, trial));
+      },
+      counts);
+}
+
 }  // namespace
 
 double peak(const std::vector<double>& wave) {
   double worst = 0.0;
   for (double x : wave) worst = std::max(worst, std::abs(x));
   return worst;
+}
+
+double allowed_error(double budget, double fixed_error, bool left_to_fixed) {
+  return left_to_fixed ? std::max(budget, fixed_error + kUsefulShare * budget) : budget;
 }
 
 double usable_budget(const SplitProblem& p, std::size_t end) {

@@ -26,6 +26,9 @@ struct SplitProblem {
   double estimate = 0.0;       // the measurement's own error estimate, held back at every end
   std::vector<std::size_t> adjustable;  // the lines whose counts may change
   std::vector<int> start;      // per adjustable line: the count below which it cannot pass alone
+  /// Per adjustable line (empty: none): its start is a floor that lowering never goes below
+  /// (a line that reaches an end left to the fixed ladders must still pass alone there).
+  std::vector<bool> firm;
   int max_sections = 1;
   /// Elements of line k's ladder at N sections.
   std::function<long long(std::size_t k, int n)> elements;
@@ -42,11 +45,24 @@ struct SplitProblem {
 /// the planned lines are not raised for it (the report says which fixed line to change).
 inline constexpr double kUsefulShare = 0.25;
 
+/// The error an end may have with every ladder in place: its budget; where it is left to the
+/// fixed ladders, their error plus a quarter of the budget (kUsefulShare) if that is more, so
+/// that the planned lines are not raised for it but cannot take more than that either.
+double allowed_error(double budget, double fixed_error, bool left_to_fixed);
+
 struct SplitResult {
   std::vector<int> sections;        // per adjustable line, parallel to SplitProblem::adjustable
   std::vector<bool> left_to_fixed;  // per end: too little budget left by the fixed ladders
   bool met = false;                 // every end not left to the fixed ladders within budget
 };
+
+/// Lowers each count (the largest ladder first, `elements(i, n)` of entry i at n sections) by
+/// bisection as far as `passes` still takes the counts, the others as they are then; below
+/// `floor[i]` only while it passes there. `counts` must pass on entry.
+void lower_each(const std::vector<int>& floor,
+                const std::function<long long(std::size_t i, int n)>& elements,
+                const std::function<bool(const std::vector<int>&)>& passes,
+                std::vector<int>& counts);
 
 /// The budget each end has for the adjustable lines' own errors.
 double usable_budget(const SplitProblem& p, std::size_t end);

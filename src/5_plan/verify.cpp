@@ -178,6 +178,33 @@ Verification verify_against(const model::Circuit& circuit, const Plan& plan,
   return v;
 }
 
+/// The reference the candidate ladders are searched against: the exact response on the fewest
+/// of the exact grid's frequencies (an eighth, a quarter or a half of them) on which the plan's
+/// ladders measure with an error estimate under a tenth of the smallest tolerance, else the
+/// exact response itself. The exact grid is sized for the corners of the waveforms themselves;
+/// the difference between a ladder's waveform and the exact one needs less band. Every
+/// measurement's own estimate stands beside its error, so the coarser grid's counts are a
+/// little higher: settle_on_full_grid lowers them on the full grid, where the report's
+/// verdicts are measured.
+sim::Response candidate_reference(const model::Circuit& circuit, const Plan& plan,
+                                  const sim::Response& exact, const EndSet& ends,
+                                  const sim::ReferenceOptions& o, sim::ResponseWorkspace& ws) {
+  double tolerance = std::numeric_limits<double>::infinity();
+  for (const LinePlan& lp : plan.lines) tolerance = std::min(tolerance, lp.tolerance);
+  const std::vector<LadderSpec> specs = ladder_specs(plan);
+  const std::vector<std::optional<LadderSpec>> ladders(specs.begin(), specs.end());
+  for (const std::size_t fraction : {8, 4, 2}) {
+    sim::LaplaceGrid grid = exact.grid;
+    grid.frequencies = sim::fft_friendly(exact.grid.frequencies / fraction);
+    if (grid.frequencies < o.min_frequencies || grid.frequencies >= exact.grid.frequencies)
+      continue;
+    sim::Response coarse = sim::frequency_response(circuit, {}, grid, o, &ws);
+    if (measure_partial(circuit, coarse, ends, ladders, o, ws).error_estimate < tolerance / 10.0)
+      return coarse;
+  }
+  return exact;
+}
+
 /// One part's measurements, kept across searches: per line, N -> its errors with that line
 /// alone a ladder (the rest exact), so a search at a tighter budget only measures counts not yet
 /// seen. One line's counts are measured by one thread at a time.
@@ -203,19 +230,20 @@ struct PartMeasures {
 
 using Passes = std::function<bool(const PartialErrors&)>;
 
-/// The smallest N of line k, alone a ladder with the others exact, that `passes`:
+/// The smallest N of line k, alone a ladder with the others exact, that `accept` takes:
 /// exponential steps from the plan's count bracket it, bisection narrows the bracket; with
 /// `scan`, the counts just below and twelve over the quarter below are tried as well (see
 /// plan_verified).
-int search_line(PartMeasures& pm, sim::ResponseWorkspace& ws, std::size_t k,
-                const Passes& accept, bool scan) {
-  const auto passes = [&](int n) { return accept(pm.alone(k, n, ws)); };
-  const int start = std::clamp(pm.plan.lines[k].sections, 1, kVerifiedMaxSections);
+/// The smallest N from `start` that `passes`, as search_line finds it; with `near`, the start is
+/// taken to be close above the answer, and the bracket steps down by an eighth, not a half.
+int smallest_passing(int start, const std::function<bool(int)>& passes, bool scan,
+                     bool near = false) {
+  start = std::clamp(start, 1, kVerifiedMaxSections);
   int lo = 0, hi = 0;  // lo fails (0: none known), hi passes
   if (passes(start)) {
     hi = start;
     while (hi > 1) {
-      const int down = hi / 2;
+      const int down = near ? hi - std::max(1, hi / 8) : hi / 2;
       if (!passes(down)) {
         lo = down;
         break;
@@ -261,6 +289,12 @@ int search_line(PartMeasures& pm, sim::ResponseWorkspace& ws, std::size_t k,
       hi = down;
     }
   }
+}
+
+int search_line(PartMeasures& pm, sim::ResponseWorkspace& ws, std::size_t k,
+                const Passes& accept, bool scan) {
+  return smallest_passing(
+      pm.plan.lines[k].sections, [&](int n) { return accept(pm.alone(k, n, ws)); }, scan);
 }
 
 void closing_voltages_on(const model::Circuit& circuit, Plan& plan,
@@ -314,6 +348,7 @@ void attribute(PartMeasures& pm, const PartialErrors& fixed, const std::vector<b
   const EndSet& ends = pm.ends;
   std::vector<std::vector<double>> own(n);
   std::vector<const EndWaves*> diff(n);
+  const std::size_t first_end = v.ends.size();  // this part's accounts start here
   for (std::size_t k = 0; k < n; ++k) {
     const PartialErrors& alone = pm.alone(k, std::max(1, pm.plan.lines[k].sections), ws);
     own[k] = alone.end_errors;
@@ -342,15 +377,15 @@ void attribute(PartMeasures& pm, const PartialErrors& fixed, const std::vector<b
       lv.share = lv.own_error;  // taken as it is
       continue;
     }
-    // The planned lines' combined difference at that end (their own differences summed).
-    std::vector<double> planned(fixed.diff[worst].size(), 0.0);
-    for (std::size_t j = 0; j < n; ++j)
-      if (!pm.plan.lines[j].fixed)
-        for (std::size_t i = 0; i < planned.size(); ++i) planned[i] += (*diff[j])[worst][i];
-    const double combined = peak(planned);
-    const double usable =
-        std::max(0.0, ends.budget[worst] - fixed.end_errors[worst] - v.error_estimate);
-    lv.share = combined > 0.0 ? usable * own[k][worst] / combined : usable;
+    // What the planned lines take there together, measured: the error with every ladder in
+    // place beyond the fixed ladders' own. Their room is what the budget leaves beside the
+    // fixed ladders; each line's share is its own error scaled by room over take, so that its
+    // own error is within its share exactly when the end is within budget.
+    const double take = std::max(v.ends[first_end + worst].error - fixed.end_errors[worst], 0.0);
+    const double room = std::max(0.0, allowed_error(ends.budget[worst], fixed.end_errors[worst],
+                                                    left[worst]) -
+                                          fixed.end_errors[worst] - v.error_estimate);
+    lv.share = take > 0.0 ? room * own[k][worst] / take : room;
   }
   for (std::size_t e = 0; e < ends.node.size(); ++e) {
     if (!left[e]) continue;
@@ -358,15 +393,27 @@ void attribute(PartMeasures& pm, const PartialErrors& fixed, const std::vector<b
     for (std::size_t k = 0; k < n; ++k)
       if (pm.plan.lines[k].fixed && (culprit == n || own[k][e] > own[culprit][e])) culprit = k;
     if (culprit == n) continue;
-    // Enough sections that the fixed line alone takes at most half of the end's budget.
+    // Enough sections that the fixed line alone takes at most half of the end's budget: from
+    // the count at which a ladder's error, falling about as 1/N^2, would get there, a quarter
+    // more at a time until the measurement agrees (at most three measurements; past them the
+    // count reached is said as an estimate).
     const double half = ends.budget[e] / 2.0;
-    const int sections = search_line(
-        pm, ws, culprit,
-        [&](const PartialErrors& m) { return m.end_errors[e] + m.error_estimate <= half; },
-        false);
-    v.advice.push_back(FixedAdvice{.line = culprit, .node = ends.name[e],
-                                   .own_error = own[culprit][e], .budget = ends.budget[e],
-                                   .sections = sections});
+    const int now = std::max(1, pm.plan.lines[culprit].sections);
+    int sections = static_cast<int>(
+        std::min<double>(kVerifiedMaxSections, std::ceil(now * std::sqrt(own[culprit][e] / half))));
+    bool measured = false;
+    for (int step = 0; step < 5 && !measured; ++step) {
+      const PartialErrors& m = pm.alone(culprit, sections, ws);
+      measured = m.end_errors[e] + m.error_estimate <= half;
+      if (!measured) sections = std::min(kVerifiedMaxSections, sections + std::max(1, sections / 4));
+    }
+    // One piece of advice a fixed line: the end that needs the most sections.
+    const FixedAdvice a{.line = culprit, .node = ends.name[e], .own_error = own[culprit][e],
+                        .budget = ends.budget[e], .sections = sections, .measured = measured};
+    auto same = std::find_if(v.advice.begin(), v.advice.end(),
+                             [&](const FixedAdvice& b) { return b.line == culprit; });
+    if (same == v.advice.end()) v.advice.push_back(a);
+    else if (a.sections > same->sections) *same = a;
   }
 }
 
@@ -400,6 +447,37 @@ int alone_count(PartMeasures& pm, const PartialErrors& fixed, const std::vector<
       true);
 }
 
+/// Whether counts (parallel to `adjustable`) pass with every ladder in place, measured on pm's
+/// grid: every line end within its budget with the measure's estimate added; at an end left to
+/// the fixed ladders, the planned lines may add a quarter of its budget (kUsefulShare) to the
+/// fixed ladders' error there, no more.
+struct TogetherCheck {
+  PartMeasures& pm;
+  const Plan& plan;
+  const std::vector<std::size_t>& adjustable;
+  const PartialErrors& fixed;
+  const std::vector<bool>& left;
+  sim::ResponseWorkspace& ws;
+  std::map<std::vector<int>, bool> seen;
+
+  bool operator()(const std::vector<int>& counts) {
+    auto it = seen.find(counts);
+    if (it != seen.end()) return it->second;
+    Plan trial = plan;
+    for (std::size_t i = 0; i < adjustable.size(); ++i)
+      set_sections(pm.circuit.lines[adjustable[i]], trial.lines[adjustable[i]], counts[i]);
+    const sim::LadderMeasurement m = sim::measure_ladder_error(
+        pm.circuit, pm.exact, ladder_specs(trial), pm.options, &ws);
+    bool ok = true;
+    for (std::size_t e = 0; e < pm.ends.name.size(); ++e) {
+      const double allowed = allowed_error(pm.ends.budget[e], fixed.end_errors[e], left[e]);
+      for (const sim::EndError& end : m.ends)
+        if (end.node == pm.ends.name[e]) ok = ok && end.worst.error + m.error_estimate <= allowed;
+    }
+    return seen.emplace(counts, ok).first->second;
+  }
+};
+
 /// Splits every end's budget between the planned lines that reach it (split_budget) and sets
 /// their counts; false when no split meets every end.
 bool split_counts(PartMeasures& pm, Plan& plan, const PartialErrors& fixed,
@@ -413,7 +491,11 @@ bool split_counts(PartMeasures& pm, Plan& plan, const PartialErrors& fixed,
   for (const auto& counts : pm.seen)
     for (const auto& [count, m] : counts) p.estimate = std::max(p.estimate, m.error_estimate);
   p.adjustable = adjustable;
-  for (const std::size_t k : adjustable) p.start.push_back(plan.lines[k].sections);
+  for (const std::size_t k : adjustable) {
+    p.start.push_back(plan.lines[k].sections);
+    p.firm.push_back(std::any_of(pm.ends.of_line[k].begin(), pm.ends.of_line[k].end(),
+                                 [&](std::size_t e) { return left[e]; }));
+  }
   p.max_sections = kVerifiedMaxSections;
   p.elements = [&](std::size_t k, int count) {
     LinePlan trial = plan.lines[k];
@@ -430,23 +512,8 @@ bool split_counts(PartMeasures& pm, Plan& plan, const PartialErrors& fixed,
       pm.alone(trial[i].first, trial[i].second, own);
     });
   };
-  // Every line within its tolerance with all ladders in place, except those whose end is left
-  // to the fixed ladders.
-  std::map<std::vector<int>, bool> accepted;
-  p.accept = [&](const std::vector<int>& counts) {
-    auto it = accepted.find(counts);
-    if (it != accepted.end()) return it->second;
-    Plan trial = plan;
-    for (std::size_t i = 0; i < adjustable.size(); ++i)
-      set_sections(pm.circuit.lines[adjustable[i]], trial.lines[adjustable[i]], counts[i]);
-    const Verification v = verify_against(pm.circuit, trial, pm.exact, pm.options, ws, false);
-    bool ok = true;
-    for (std::size_t k = 0; k < v.lines.size(); ++k)
-      ok = ok && (v.lines[k].adequate || std::any_of(pm.ends.of_line[k].begin(),
-                                                     pm.ends.of_line[k].end(),
-                                                     [&](std::size_t e) { return left[e]; }));
-    return accepted.emplace(counts, ok).first->second;
-  };
+  TogetherCheck together{pm, plan, adjustable, fixed, left, ws, {}};
+  p.accept = [&](const std::vector<int>& counts) { return together(counts); };
   const SplitResult r = split_budget(p);
   for (std::size_t i = 0; i < adjustable.size(); ++i)
     set_sections(pm.circuit.lines[adjustable[i]], plan.lines[adjustable[i]], r.sections[i]);
@@ -500,6 +567,45 @@ void tighten_by_measuring(PartMeasures& pm, Plan& plan, const std::vector<std::s
   }
 }
 
+/// The counts found on the candidates' coarser grid, settled on the full one: raised by
+/// measuring if they fail there, then each lowered as far as the design still passes with every
+/// ladder in place, never below `floor` (per adjustable line; 0: none).
+void settle_on_full_grid(const model::Circuit& circuit, const sim::Response& exact,
+                         const sim::ReferenceOptions& o, const EndSet& ends,
+                         const std::vector<std::size_t>& adjustable, const std::vector<int>& floor,
+                         const std::vector<bool>& left,
+                         const std::vector<bool>& owed_to_fixed, ThreadPool& pool,
+                         sim::ResponseWorkspace& ws, Plan& plan) {
+  PartMeasures full{circuit, exact, o, ends, plan, {}};
+  full.seen.resize(circuit.lines.size());
+  Verification v = verify_against(circuit, plan, exact, o, ws, false);
+  tighten_by_measuring(full, plan, adjustable, owed_to_fixed, pool, ws, v);
+  std::vector<int> counts;
+  for (const std::size_t k : adjustable) counts.push_back(plan.lines[k].sections);
+  const PartialErrors fixed = fixed_errors(full, ws);
+  TogetherCheck together{full, plan, adjustable, fixed, left, ws, {}};
+  if (!together(counts)) return;  // still failing: the verdicts say where
+  // The largest ladder first; each searched as search_line searches, from just above.
+  std::vector<std::size_t> order(adjustable.size());
+  std::iota(order.begin(), order.end(), std::size_t{0});
+  std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+    return plan.lines[adjustable[a]].elements > plan.lines[adjustable[b]].elements;
+  });
+  for (const std::size_t i : order) {
+    std::vector<int> trial = counts;
+    counts[i] = smallest_passing(
+        counts[i],
+        [&](int n) {
+          if (n < floor[i]) return false;
+          trial[i] = n;
+          return together(trial);
+        },
+        true, true);
+  }
+  for (std::size_t i = 0; i < adjustable.size(); ++i)
+    set_sections(circuit.lines[adjustable[i]], plan.lines[adjustable[i]], counts[i]);
+}
+
 std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
                                                  const Plan& analytic, ThreadPool& pool) {
   Plan plan = analytic;
@@ -507,7 +613,8 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
   sim::ResponseWorkspace ws;
   const sim::Response exact = sim::exact_reference(circuit, o, &ws);
   const EndSet ends = end_set(circuit, plan, exact);
-  PartMeasures pm{circuit, exact, o, ends, plan, {}};
+  const sim::Response candidates = candidate_reference(circuit, plan, exact, ends, o, ws);
+  PartMeasures pm{circuit, candidates, o, ends, plan, {}};
   pm.seen.resize(circuit.lines.size());
 
   const std::size_t n = circuit.lines.size();
@@ -522,21 +629,35 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
   for_each_item(pool, adjustable, [&](std::size_t k, sim::ResponseWorkspace& own) {
     set_sections(circuit.lines[k], plan.lines[k], alone_count(pm, fixed, left, k, own));
   });
+  // A line that reaches an end left to the fixed ladders keeps at least the count it needs
+  // alone: it is not raised for the fixed lines' error, nor let go below its own budget.
+  std::vector<int> floor;
+  for (const std::size_t k : adjustable) {
+    const bool firm = std::any_of(ends.of_line[k].begin(), ends.of_line[k].end(),
+                                  [&](std::size_t e) { return left[e]; });
+    floor.push_back(firm ? plan.lines[k].sections : 0);
+  }
   split_counts(pm, plan, fixed, left, adjustable, pool, ws);
 
   // Together: the split takes errors to add where ladders meet; the measurement with every
   // ladder in place says whether they did.
-  Verification v = verify_against(circuit, plan, exact, o, ws, false);
+  Verification v = verify_against(circuit, plan, candidates, o, ws, false);
   std::vector<bool> owed_to_fixed(n, false);
   for (std::size_t k = 0; k < n; ++k)
     for (const std::size_t e : ends.of_line[k])
       owed_to_fixed[k] = owed_to_fixed[k] || (left[e] && !v.lines[k].adequate);
   tighten_by_measuring(pm, plan, adjustable, owed_to_fixed, pool, ws, v);
 
+  if (candidates.grid.frequencies != exact.grid.frequencies)
+    settle_on_full_grid(circuit, exact, o, ends, adjustable, floor, left, owed_to_fixed, pool, ws,
+                        plan);
   sim::LadderMeasurement together;
   v = verify_against(circuit, plan, exact, o, ws, true, &together);
   for (std::size_t k = 0; k < n; ++k) v.lines[k].owed_to_fixed = owed_to_fixed[k];
-  attribute(pm, fixed, left, together, ws, v);
+  // The attribution the report prints is measured on the full grid, as the verdicts are.
+  PartMeasures full{circuit, exact, o, ends, plan, {}};
+  full.seen.resize(n);
+  attribute(full, fixed_errors(full, ws), left, together, ws, v);
 
   closing_voltages_on(circuit, plan, exact.grid, ws);
   return {plan, v};

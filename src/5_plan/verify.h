@@ -30,10 +30,11 @@ struct LineVerdict {
   /// The line's own contribution: the largest error its ladder causes alone, every other line
   /// exact, at the line end where it takes the most of the budget (`share_node`).
   double own_error = 0.0;
-  /// The part of that end's budget the line may take: what the fixed ladders and the measure's
-  /// estimate leave (the usable budget), times its own error over the peak of the planned lines'
-  /// combined difference there. own_error <= share exactly when their combined difference fits
-  /// the usable budget. A fixed line's share is its own error, taken as it is.
+  /// The part of that end's budget the line may take: the room the fixed ladders and the
+  /// measure's estimate leave there, times its own error over what the planned lines take there
+  /// together (the measured error with every ladder in place, less the fixed ladders' error).
+  /// own_error <= share exactly when the end is within budget. A fixed line's share is its own
+  /// error, taken as it is.
   double share = 0.0;
   std::string share_node;
 };
@@ -52,14 +53,17 @@ struct EndAccount {
   bool left_to_fixed = false;
 };
 
-/// A fixed line that takes most of an end's budget, and the count at which it alone would take
-/// half of it (measured).
+/// A fixed line that takes most of an end's budget, and a count at which it alone takes at most
+/// half of it: from the 1/N^2 fall of a ladder's error, raised by a quarter at a time until
+/// measured so (at most five measurements; `measured` says whether one agreed). One a fixed
+/// line: at the end that needs the most.
 struct FixedAdvice {
   std::size_t line = 0;  // into circuit.lines
   std::string node;
   double own_error = 0.0;
   double budget = 0.0;
   int sections = 0;
+  bool measured = false;
 };
 
 struct Verification {

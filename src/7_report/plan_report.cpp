@@ -37,9 +37,9 @@ std::string table(const std::vector<std::vector<std::string>>& rows) {
 std::string budget_notes(const model::Circuit& circuit, const plan::Verification& v) {
   std::string out =
       "own error: the line's ladder alone, every other line exact, at the end named under "
-      "\"at\", where it takes the most of the budget; share: the error it may have there, "
-      "the budget the fixed lines leave times its own error over the peak of the planned lines' "
-      "differences added together (own error within share: their added differences fit the budget); a fixed "
+      "\"at\", where it takes the most of the budget; share: the error it may have there, its "
+      "own error times the room the fixed lines leave over what the planned lines take there "
+      "together (measured), so own error within share means the end is within budget; a fixed "
       "line's share is its own error\n";
   double worst = 0.0;
   const plan::EndAccount* off = nullptr;
@@ -58,9 +58,10 @@ std::string budget_notes(const model::Circuit& circuit, const plan::Verification
            "the sum of the lines' own differences (and the estimate)\n";
   for (const plan::FixedAdvice& a : v.advice)
     out += fmt::format("advice: at {} the fixed line {} alone takes {} of the {} budget, leaving "
-                       "the other lines too little; with sections={} it would take half (measured)\n",
+                       "the other lines too little; with sections={} it would take {} half ({})\n",
                        a.node, circuit.lines[a.line].name, percent(a.own_error),
-                       percent(a.budget), a.sections);
+                       percent(a.budget), a.sections, a.measured ? "at most" : "about",
+                       a.measured ? "measured" : "estimated from the 1/N^2 fall of a ladder's error");
   return out;
 }
 
@@ -235,6 +236,7 @@ std::string plan_json(const model::Circuit& circuit, const plan::Plan& plan,
           .key("own_error").value(a.own_error)
           .key("budget").value(a.budget)
           .key("sections").value(a.sections)
+          .key("measured").value(a.measured)
           .end_object();
     json.end_array();
   }
@@ -284,11 +286,13 @@ std::vector<std::string> inadequate_lines(const model::Circuit& circuit, const p
                               percent(verification.error_estimate), percent(plan.lines[i].tolerance)));
     if (v.owed_to_fixed && !plan.lines[i].fixed) {
       std::string fixed;
-      for (std::size_t j = 0; j < circuit.lines.size(); ++j)
-        if (plan.lines[j].fixed && j != i) fixed += fmt::format("{}{}", fixed.empty() ? "" : ", ", circuit.lines[j].name);
-      out.back() += fmt::format("; it fails with every planned line exact, so the fixed "
-                                "sections= of {} cause it: raise or remove them",
-                                fixed);
+      for (const plan::FixedAdvice& a : verification.advice)
+        if (fixed.find(circuit.lines[a.line].name) == std::string::npos)
+          fixed += fmt::format("{}{} (to sections={})", fixed.empty() ? "" : ", ",
+                               circuit.lines[a.line].name, a.sections);
+      out.back() += fmt::format("; the fixed sections= of {} leave too little of the budget at "
+                                "its end, so it was not raised for it: raise them",
+                                fixed.empty() ? "the fixed lines" : fixed);
     }
   }
   return out;
