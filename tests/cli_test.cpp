@@ -1,6 +1,7 @@
 // The command line as a user meets it: subcommands, stdin, exit codes, the lines report.
 #include <catch2/catch.hpp>
 
+#include <cmath>
 #include <cstdlib>
 #include <filesystem>
 #include <fstream>
@@ -140,6 +141,27 @@ TEST_CASE("rungs plan (verified by default) finds the smallest adequate count") 
   CHECK(r.out.find("\"sections\": 12,") != std::string::npos);
   CHECK(r.out.find("\"adequate\": true") != std::string::npos);
   CHECK(r.out.find("\"verified\": true") != std::string::npos);
+}
+
+/// The number after `"key": ` in JSON text, or NaN.
+double json_number(const std::string& text, const std::string& key) {
+  const std::size_t at = text.find("\"" + key + "\": ");
+  if (at == std::string::npos) return std::nan("");
+  return std::stod(text.substr(at + key.size() + 4));
+}
+
+TEST_CASE("rungs plan --json: a line alone is its own error, within its share of the budget") {
+  auto r = run_rungs("plan --json -", open_line(""));
+  REQUIRE(r.exit_code == 0);
+  const double error = json_number(r.out, "error");
+  const double own = json_number(r.out, "own_error");
+  const double share = json_number(r.out, "share");
+  // With one line, its ladder alone is every ladder in place: the same measurement.
+  CHECK(own == Approx(error).epsilon(1e-9));
+  CHECK(own <= share);
+  CHECK(share <= 0.02);
+  CHECK(r.out.find("\"share_node\": \"") != std::string::npos);
+  CHECK(r.out.find("\"superposed_error\": ") != std::string::npos);
 }
 
 TEST_CASE("rungs check --netlist: a netlist must be what emit writes now") {

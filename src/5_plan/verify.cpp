@@ -9,6 +9,7 @@
 #include <memory>
 #include <mutex>
 #include <numeric>
+#include <span>
 
 #include "1_syntax/invariant.h"
 #include "3_model/circuit.h"
@@ -339,77 +340,101 @@ std::vector<bool> left_to_fixed(const EndSet& ends, const PartialErrors& fixed) 
   return left;
 }
 
-/// Each line's own error at its planned count and its share of the budget at the end where it
-/// takes the most; each end's account; advice for the ends left to fixed ladders.
-void attribute(PartMeasures& pm, const PartialErrors& fixed, const std::vector<bool>& left,
-               const sim::LadderMeasurement& together, sim::ResponseWorkspace& ws,
-               Verification& v) {
-  const std::size_t n = pm.circuit.lines.size();
-  const EndSet& ends = pm.ends;
-  std::vector<std::vector<double>> own(n);
-  std::vector<const EndWaves*> diff(n);
-  const std::size_t first_end = v.ends.size();  // this part's accounts start here
-  for (std::size_t k = 0; k < n; ++k) {
-    const PartialErrors& alone = pm.alone(k, std::max(1, pm.plan.lines[k].sections), ws);
-    own[k] = alone.end_errors;
-    diff[k] = &alone.diff;
-  }
+/// Every line's own measurement at its planned count (its ladder alone, the others exact).
+std::vector<const PartialErrors*> own_measurements(PartMeasures& pm, sim::ResponseWorkspace& ws) {
+  std::vector<const PartialErrors*> own;
+  for (std::size_t k = 0; k < pm.circuit.lines.size(); ++k)
+    own.push_back(&pm.alone(k, std::max(1, pm.plan.lines[k].sections), ws));
+  return own;
+}
+
+/// Each end's account: budget, the fixed ladders' error, the superposed prediction and the
+/// error measured with every ladder in place (`together`).
+void account_ends(const EndSet& ends, const PartialErrors& fixed, const std::vector<bool>& left,
+                  const std::vector<const PartialErrors*>& own,
+                  const sim::LadderMeasurement& together, Verification& v) {
   for (std::size_t e = 0; e < ends.node.size(); ++e) {
     EndAccount acc{.node = ends.name[e], .budget = ends.budget[e], .fixed = fixed.end_errors[e],
                    .superposed = 0.0, .error = 0.0, .left_to_fixed = left[e]};
     std::vector<double> sum(fixed.diff[e].size(), 0.0);
-    for (std::size_t k = 0; k < n; ++k)
-      for (std::size_t j = 0; j < sum.size(); ++j) sum[j] += (*diff[k])[e][j];
+    for (const PartialErrors* line : own)
+      for (std::size_t j = 0; j < sum.size(); ++j) sum[j] += line->diff[e][j];
     acc.superposed = peak(sum);
     for (const sim::EndError& end : together.ends)
       if (end.node == acc.node) acc.error = std::max(acc.error, end.worst.error);
     v.ends.push_back(acc);
   }
-  for (std::size_t k = 0; k < n; ++k) {
-    std::size_t worst = 0;
-    for (std::size_t e = 1; e < ends.node.size(); ++e)
-      if (own[k][e] / ends.budget[e] > own[k][worst] / ends.budget[worst]) worst = e;
-    LineVerdict& lv = v.lines[k];
-    if (ends.node.empty()) continue;
-    lv.own_error = own[k][worst];
-    lv.share_node = ends.name[worst];
-    if (pm.plan.lines[k].fixed) {
-      lv.share = lv.own_error;  // taken as it is
-      continue;
-    }
-    // What the planned lines take there together, measured: the error with every ladder in
-    // place beyond the fixed ladders' own. Their room is what the budget leaves beside the
-    // fixed ladders; each line's share is its own error scaled by room over take, so that its
-    // own error is within its share exactly when the end is within budget.
-    const double take = std::max(v.ends[first_end + worst].error - fixed.end_errors[worst], 0.0);
-    const double room = std::max(0.0, allowed_error(ends.budget[worst], fixed.end_errors[worst],
-                                                    left[worst]) -
-                                          fixed.end_errors[worst] - v.error_estimate);
-    lv.share = take > 0.0 ? room * own[k][worst] / take : room;
+}
+
+/// Line k's own error and share at the end where it takes the most of the budget (see
+/// LineVerdict); `accounts` are this part's end accounts, parallel to the EndSet.
+void share_of(const PartMeasures& pm, std::size_t k, const PartialErrors& own,
+              const PartialErrors& fixed, const std::vector<bool>& left,
+              std::span<const EndAccount> accounts, double estimate, LineVerdict& lv) {
+  const EndSet& ends = pm.ends;
+  if (ends.node.empty()) return;
+  std::size_t worst = 0;
+  for (std::size_t e = 1; e < ends.node.size(); ++e)
+    if (own.end_errors[e] / ends.budget[e] > own.end_errors[worst] / ends.budget[worst]) worst = e;
+  lv.own_error = own.end_errors[worst];
+  lv.share_node = ends.name[worst];
+  if (pm.plan.lines[k].fixed) {
+    lv.share = lv.own_error;  // taken as it is
+    return;
   }
-  for (std::size_t e = 0; e < ends.node.size(); ++e) {
+  // What the planned lines take there together, measured: the error with every ladder in place
+  // beyond the fixed ladders' own. Their room is what the budget leaves beside the fixed
+  // ladders; each line's share is its own error scaled by room over take, so that its own
+  // error is within its share exactly when the end is within budget.
+  const double fixed_error = fixed.end_errors[worst];
+  const double take = std::max(accounts[worst].error - fixed_error, 0.0);
+  const double room = std::max(
+      0.0, allowed_error(ends.budget[worst], fixed_error, left[worst]) - fixed_error - estimate);
+  lv.share = take > 0.0 ? room * lv.own_error / take : room;
+}
+
+/// A count at which fixed line k alone takes at most half of end e's budget (FixedAdvice).
+FixedAdvice advise_fixed(PartMeasures& pm, std::size_t k, std::size_t e, double own_error,
+                         sim::ResponseWorkspace& ws) {
+  // From the count at which a ladder's error, falling about as 1/N^2, would get there, a
+  // quarter more at a time until the measurement agrees (at most five measurements; past them
+  // the count reached is said as an estimate).
+  const double half = pm.ends.budget[e] / 2.0;
+  const int now = std::max(1, pm.plan.lines[k].sections);
+  int sections = static_cast<int>(
+      std::min<double>(kVerifiedMaxSections, std::ceil(now * std::sqrt(own_error / half))));
+  bool measured = false;
+  for (int step = 0; step < 5 && !measured; ++step) {
+    const PartialErrors& m = pm.alone(k, sections, ws);
+    measured = m.end_errors[e] + m.error_estimate <= half;
+    if (!measured) sections = std::min(kVerifiedMaxSections, sections + std::max(1, sections / 4));
+  }
+  return FixedAdvice{.line = k, .node = pm.ends.name[e], .own_error = own_error,
+                     .budget = pm.ends.budget[e], .sections = sections, .measured = measured};
+}
+
+/// Each line's own error and share, each end's account, and advice for the fixed line that
+/// takes most of each end left to fixed ladders (one piece a fixed line: the end that needs
+/// the most sections).
+void attribute(PartMeasures& pm, const PartialErrors& fixed, const std::vector<bool>& left,
+               const sim::LadderMeasurement& together, sim::ResponseWorkspace& ws,
+               Verification& v) {
+  const std::size_t n = pm.circuit.lines.size();
+  const std::vector<const PartialErrors*> own = own_measurements(pm, ws);
+  const std::size_t first = v.ends.size();  // this part's accounts start here
+  account_ends(pm.ends, fixed, left, own, together, v);
+  const std::span<const EndAccount> accounts(v.ends.data() + first, pm.ends.node.size());
+  for (std::size_t k = 0; k < n; ++k)
+    share_of(pm, k, *own[k], fixed, left, accounts, v.error_estimate, v.lines[k]);
+  for (std::size_t e = 0; e < pm.ends.node.size(); ++e) {
     if (!left[e]) continue;
     std::size_t culprit = n;
     for (std::size_t k = 0; k < n; ++k)
-      if (pm.plan.lines[k].fixed && (culprit == n || own[k][e] > own[culprit][e])) culprit = k;
+      if (pm.plan.lines[k].fixed &&
+          (culprit == n || own[k]->end_errors[e] > own[culprit]->end_errors[e]))
+        culprit = k;
     if (culprit == n) continue;
-    // Enough sections that the fixed line alone takes at most half of the end's budget: from
-    // the count at which a ladder's error, falling about as 1/N^2, would get there, a quarter
-    // more at a time until the measurement agrees (at most three measurements; past them the
-    // count reached is said as an estimate).
-    const double half = ends.budget[e] / 2.0;
-    const int now = std::max(1, pm.plan.lines[culprit].sections);
-    int sections = static_cast<int>(
-        std::min<double>(kVerifiedMaxSections, std::ceil(now * std::sqrt(own[culprit][e] / half))));
-    bool measured = false;
-    for (int step = 0; step < 5 && !measured; ++step) {
-      const PartialErrors& m = pm.alone(culprit, sections, ws);
-      measured = m.end_errors[e] + m.error_estimate <= half;
-      if (!measured) sections = std::min(kVerifiedMaxSections, sections + std::max(1, sections / 4));
-    }
-    // One piece of advice a fixed line: the end that needs the most sections.
-    const FixedAdvice a{.line = culprit, .node = ends.name[e], .own_error = own[culprit][e],
-                        .budget = ends.budget[e], .sections = sections, .measured = measured};
+    const FixedAdvice a = advise_fixed(pm, culprit, e, own[culprit]->end_errors[e], ws);
     auto same = std::find_if(v.advice.begin(), v.advice.end(),
                              [&](const FixedAdvice& b) { return b.line == culprit; });
     if (same == v.advice.end()) v.advice.push_back(a);

@@ -65,6 +65,34 @@ std::string budget_notes(const model::Circuit& circuit, const plan::Verification
   return out;
 }
 
+/// The verification's design-wide figures in the JSON: the measure's estimate (as
+/// "accuracy"), each end's account and the advice for fixed lines.
+void write_accounts(JsonWriter& json, const model::Circuit& circuit, const plan::Verification& v) {
+  json.key("accuracy").value(v.error_estimate);
+  json.key("ends").begin_array();
+  for (const plan::EndAccount& end : v.ends)
+    json.begin_object()
+        .key("node").value(end.node)
+        .key("budget").value(end.budget)
+        .key("fixed_error").value(end.fixed)
+        .key("superposed_error").value(end.superposed)
+        .key("error").value(end.error)
+        .key("left_to_fixed").value(end.left_to_fixed)
+        .end_object();
+  json.end_array();
+  json.key("advice").begin_array();
+  for (const plan::FixedAdvice& a : v.advice)
+    json.begin_object()
+        .key("line").value(circuit.lines[a.line].name)
+        .key("node").value(a.node)
+        .key("own_error").value(a.own_error)
+        .key("budget").value(a.budget)
+        .key("sections").value(a.sections)
+        .key("measured").value(a.measured)
+        .end_object();
+  json.end_array();
+}
+
 }  // namespace
 
 std::vector<std::string> cautions(const model::Circuit& circuit, const plan::Plan& plan,
@@ -215,31 +243,7 @@ std::string plan_json(const model::Circuit& circuit, const plan::Plan& plan,
   json.end_array();
   json.key("elements").value(plan.elements);
   json.key("verified").value(verification != nullptr);
-  if (verification) {
-    json.key("accuracy").value(verification->error_estimate);
-    json.key("ends").begin_array();
-    for (const plan::EndAccount& end : verification->ends)
-      json.begin_object()
-          .key("node").value(end.node)
-          .key("budget").value(end.budget)
-          .key("fixed_error").value(end.fixed)
-          .key("superposed_error").value(end.superposed)
-          .key("error").value(end.error)
-          .key("left_to_fixed").value(end.left_to_fixed)
-          .end_object();
-    json.end_array();
-    json.key("advice").begin_array();
-    for (const plan::FixedAdvice& a : verification->advice)
-      json.begin_object()
-          .key("line").value(circuit.lines[a.line].name)
-          .key("node").value(a.node)
-          .key("own_error").value(a.own_error)
-          .key("budget").value(a.budget)
-          .key("sections").value(a.sections)
-          .key("measured").value(a.measured)
-          .end_object();
-    json.end_array();
-  }
+  if (verification) write_accounts(json, circuit, *verification);
   auto maybe = [&](double v) { return peak.computed ? std::optional<double>(v) : std::nullopt; };
   json.key("peak_ratio").value(maybe(peak.ratio));
   json.key("peak_voltage").value(maybe(peak.voltage));
