@@ -238,7 +238,8 @@ using Passes = std::function<bool(const PartialErrors&)>;
 /// The smallest N from `start` that `passes`, as search_line finds it; with `near`, the start is
 /// taken to be close above the answer, and the bracket steps down by an eighth, not a half.
 int smallest_passing(int start, const std::function<bool(int)>& passes, bool scan,
-                     bool near = false) {
+                     bool near = false,
+                     const std::function<void(const std::vector<int>&)>& prefetch = {}) {
   start = std::clamp(start, 1, kVerifiedMaxSections);
   int lo = 0, hi = 0;  // lo fails (0: none known), hi passes
   if (passes(start)) {
@@ -272,9 +273,17 @@ int smallest_passing(int start, const std::function<bool(int)>& passes, bool sca
     // the quarter below it (a band that passes below a band that fails is a few per cent of N
     // wide where it was seen), before taking it.
     int below = 0;
+    const int stride = std::max(1, hi / 48);
+    if (prefetch) {  // the counts looked at below, measured ahead side by side
+      std::vector<int> ahead;
+      for (int n : {hi - 1, hi - 2})
+        if (n >= 1) ahead.push_back(n);
+      for (int step = 1; scan && step <= 12 && hi - step * stride >= 1; ++step)
+        ahead.push_back(hi - step * stride);
+      prefetch(ahead);
+    }
     if (hi - 1 >= 1 && passes(hi - 1)) below = hi - 1;
     else if (hi - 2 >= 1 && passes(hi - 2)) below = hi - 2;
-    const int stride = std::max(1, hi / 48);
     for (int step = 1; scan && below == 0 && step <= 12 && hi - step * stride >= 1; ++step)
       if (passes(hi - step * stride)) below = hi - step * stride;
     if (below == 0) return hi;
@@ -487,19 +496,35 @@ struct TogetherCheck {
 
   bool operator()(const std::vector<int>& counts) {
     auto it = seen.find(counts);
-    if (it != seen.end()) return it->second;
+    if (it == seen.end()) it = seen.emplace(counts, evaluate(counts, ws)).first;
+    return it->second;
+  }
+
+  /// Measures the sets of counts not yet seen side by side on `pool`.
+  void prefetch(const std::vector<std::vector<int>>& batch, ThreadPool& pool) {
+    std::vector<std::size_t> missing;
+    for (std::size_t i = 0; i < batch.size(); ++i)
+      if (!seen.count(batch[i])) missing.push_back(i);
+    std::vector<char> passed(batch.size(), 0);
+    for_each_item(pool, missing, [&](std::size_t i, sim::ResponseWorkspace& own) {
+      passed[i] = evaluate(batch[i], own) ? 1 : 0;
+    });
+    for (const std::size_t i : missing) seen.emplace(batch[i], passed[i] != 0);
+  }
+
+  bool evaluate(const std::vector<int>& counts, sim::ResponseWorkspace& work) const {
     Plan trial = plan;
     for (std::size_t i = 0; i < adjustable.size(); ++i)
       set_sections(pm.circuit.lines[adjustable[i]], trial.lines[adjustable[i]], counts[i]);
     const sim::LadderMeasurement m = sim::measure_ladder_error(
-        pm.circuit, pm.exact, ladder_specs(trial), pm.options, &ws);
+        pm.circuit, pm.exact, ladder_specs(trial), pm.options, &work);
     bool ok = true;
     for (std::size_t e = 0; e < pm.ends.name.size(); ++e) {
       const double allowed = allowed_error(pm.ends.budget[e], fixed.end_errors[e], left[e]);
       for (const sim::EndError& end : m.ends)
         if (end.node == pm.ends.name[e]) ok = ok && end.worst.error + m.error_estimate <= allowed;
     }
-    return seen.emplace(counts, ok).first->second;
+    return ok;
   }
 };
 
@@ -618,6 +643,11 @@ void settle_on_full_grid(const model::Circuit& circuit, const sim::Response& exa
   });
   for (const std::size_t i : order) {
     std::vector<int> trial = counts;
+    const auto with = [&](int n) {
+      std::vector<int> c = counts;
+      c[i] = n;
+      return c;
+    };
     counts[i] = smallest_passing(
         counts[i],
         [&](int n) {
@@ -625,7 +655,13 @@ void settle_on_full_grid(const model::Circuit& circuit, const sim::Response& exa
           trial[i] = n;
           return together(trial);
         },
-        true, true);
+        true, true,
+        [&](const std::vector<int>& ahead) {
+          std::vector<std::vector<int>> batch;
+          for (int n : ahead)
+            if (n >= floor[i]) batch.push_back(with(n));
+          together.prefetch(batch, pool);
+        });
   }
   for (std::size_t i = 0; i < adjustable.size(); ++i)
     set_sections(circuit.lines[adjustable[i]], plan.lines[adjustable[i]], counts[i]);
