@@ -187,9 +187,10 @@ Verification verify_against(const model::Circuit& circuit, const Plan& plan,
 /// measurement's own estimate stands beside its error, so the coarser grid's counts are a
 /// little higher: settle_on_full_grid lowers them on the full grid, where the report's
 /// verdicts are measured.
-sim::Response candidate_reference(const model::Circuit& circuit, const Plan& plan,
-                                  const sim::Response& exact, const EndSet& ends,
-                                  const sim::ReferenceOptions& o, sim::ResponseWorkspace& ws) {
+std::optional<sim::Response> candidate_reference(const model::Circuit& circuit, const Plan& plan,
+                                                 const sim::Response& exact, const EndSet& ends,
+                                                 const sim::ReferenceOptions& o,
+                                                 sim::ResponseWorkspace& ws) {
   double tolerance = std::numeric_limits<double>::infinity();
   for (const LinePlan& lp : plan.lines) tolerance = std::min(tolerance, lp.tolerance);
   const std::vector<LadderSpec> specs = ladder_specs(plan);
@@ -203,7 +204,7 @@ sim::Response candidate_reference(const model::Circuit& circuit, const Plan& pla
     if (measure_partial(circuit, coarse, ends, ladders, o, ws).error_estimate < tolerance / 10.0)
       return coarse;
   }
-  return exact;
+  return std::nullopt;
 }
 
 /// One part's measurements, kept across searches: per line, N -> its errors with that line
@@ -674,14 +675,17 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
   sim::ResponseWorkspace ws;
   const sim::Response exact = sim::exact_reference(circuit, o, &ws);
   const EndSet ends = end_set(circuit, plan, exact);
-  const sim::Response candidates = candidate_reference(circuit, plan, exact, ends, o, ws);
-  PartMeasures pm{circuit, candidates, o, ends, plan, {}};
-  pm.seen.resize(circuit.lines.size());
-
   const std::size_t n = circuit.lines.size();
   std::vector<std::size_t> adjustable;
   for (std::size_t j = 0; j < n; ++j)
     if (!plan.lines[j].fixed && plan.lines[j].rise > 0.0) adjustable.push_back(j);
+  // With one line to plan there is nothing to split: its search on the full grid is the answer.
+  const std::optional<sim::Response> coarse =
+      adjustable.size() > 1 ? candidate_reference(circuit, plan, exact, ends, o, ws) : std::nullopt;
+  const sim::Response& candidates = coarse ? *coarse : exact;
+  PartMeasures pm{circuit, candidates, o, ends, plan, {}};
+  pm.seen.resize(circuit.lines.size());
+
   // The fixed ladders' errors are taken as they are; the planned lines share what is left.
   const PartialErrors fixed = fixed_errors(pm, ws);
   const std::vector<bool> left = left_to_fixed(ends, fixed);
@@ -698,7 +702,7 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
                                   [&](std::size_t e) { return left[e]; });
     floor.push_back(firm ? plan.lines[k].sections : 0);
   }
-  split_counts(pm, plan, fixed, left, adjustable, pool, ws);
+  if (adjustable.size() > 1) split_counts(pm, plan, fixed, left, adjustable, pool, ws);
 
   // Together: the split takes errors to add where ladders meet; the measurement with every
   // ladder in place says whether they did.
@@ -709,16 +713,20 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
       owed_to_fixed[k] = owed_to_fixed[k] || (left[e] && !v.lines[k].adequate);
   tighten_by_measuring(pm, plan, adjustable, owed_to_fixed, pool, ws, v);
 
-  if (candidates.grid.frequencies != exact.grid.frequencies)
+  if (coarse)
     settle_on_full_grid(circuit, exact, o, ends, adjustable, floor, left, owed_to_fixed, pool, ws,
                         plan);
   sim::LadderMeasurement together;
   v = verify_against(circuit, plan, exact, o, ws, true, &together);
   for (std::size_t k = 0; k < n; ++k) v.lines[k].owed_to_fixed = owed_to_fixed[k];
   // The attribution the report prints is measured on the full grid, as the verdicts are.
-  PartMeasures full{circuit, exact, o, ends, plan, {}};
-  full.seen.resize(n);
-  attribute(full, fixed_errors(full, ws), left, together, ws, v);
+  if (coarse) {
+    PartMeasures full{circuit, exact, o, ends, plan, {}};
+    full.seen.resize(n);
+    attribute(full, fixed_errors(full, ws), left, together, ws, v);
+  } else {
+    attribute(pm, fixed, left, together, ws, v);
+  }
 
   closing_voltages_on(circuit, plan, exact.grid, ws);
   return {plan, v};
