@@ -13,6 +13,7 @@
 #include <fstream>
 #include <functional>
 #include <map>
+#include <optional>
 #include <random>
 #include <regex>
 #include <set>
@@ -368,9 +369,94 @@ TEST_CASE("every ladder is one series chain with its shunts to ref and the line'
   }
 }
 
+/// The ladder as ladder.h's contract draws it, written plainly, one std::string at a time:
+/// what the fast writer must match byte for byte.
+std::string contract_ladder(const plan::LinePlan& lp, std::optional<double> charged) {
+  const int n = lp.sections;
+  const std::string ic = charged ? " IC=" + emit::spice_number(*charged) : "";
+  auto shunt_node = [&](int k) {
+    return k == 0 ? std::string("near") : k == n ? std::string("far") : "n" + std::to_string(k);
+  };
+  std::string out;
+  auto series = [&](int k, const std::string& a, const std::string& b, bool half) {
+    const std::string K = std::to_string(k);
+    const double scale = half ? 0.5 : 1.0;
+    if (lp.section_r > 0.0) {
+      out += "R" + K + " " + a + " m" + K + " " + emit::spice_number(lp.section_r * scale) + "\n";
+      out += "L" + K + " m" + K + " " + b + " " + emit::spice_number(lp.section_l * scale) + "\n";
+    } else {
+      out += "L" + K + " " + a + " " + b + " " + emit::spice_number(lp.section_l * scale) + "\n";
+    }
+  };
+  auto shunt = [&](int k, const std::string& node, bool half) {
+    const std::string K = std::to_string(k);
+    out += "C" + K + " " + node + " ref " + emit::spice_number(lp.section_c * (half ? 0.5 : 1.0)) +
+           ic + "\n";
+    if (lp.section_g > 0.0)
+      out += "RG" + K + " " + node + " ref " +
+             emit::spice_number((half ? 2.0 : 1.0) / lp.section_g) + "\n";
+  };
+  switch (lp.shape) {
+    case Shape::pi:
+      shunt(0, "near", true);
+      for (int k = 1; k <= n; ++k) {
+        series(k, shunt_node(k - 1), shunt_node(k), false);
+        shunt(k, shunt_node(k), k == n);
+      }
+      break;
+    case Shape::l:
+      for (int k = 1; k <= n; ++k) {
+        series(k, shunt_node(k - 1), shunt_node(k), false);
+        shunt(k, shunt_node(k), false);
+      }
+      break;
+    case Shape::t:
+      series(0, "near", "n1", true);
+      for (int k = 1; k <= n; ++k) {
+        const std::string node = "n" + std::to_string(k);
+        shunt(k, node, false);
+        series(k, node, k == n ? "far" : "n" + std::to_string(k + 1), k == n);
+      }
+      break;
+  }
+  return out;
+}
+
+TEST_CASE("write_ladder writes the contract's ladder byte for byte, across new digits") {
+  // Section counts at and beside the points where numbers gain a digit, where counted
+  // names would go wrong first.
+  for (Shape shape : {Shape::pi, Shape::t, Shape::l}) {
+    for (int sections : {1, 8, 9, 10, 11, 99, 100, 101, 999, 1000, 1001, 10001}) {
+      for (bool lossy : {false, true}) {
+        INFO("shape " << model::shape_name(shape) << ", " << sections << " sections, lossy "
+                      << lossy);
+        const plan::LinePlan lp = line_plan(sections, shape, lossy, lossy);
+        const std::optional<double> charged = lossy ? std::optional<double>(-3.3) : std::nullopt;
+        CHECK(ladder_text(lp, charged) == contract_ladder(lp, charged));
+      }
+    }
+  }
+}
+
+TEST_CASE("write_ladder holds the longest values a number can take") {
+  // 24 characters (sign, 17 digits, point, e, sign, three digits) is the longest text
+  // spice_number writes: negative L and C as long as that, R and G (which must be positive
+  // to be written at all) one shorter, and a starting voltage as long.
+  plan::LinePlan lp = line_plan(3, Shape::pi, true, true);
+  lp.section_l = -1.2345678901234567e-300;
+  lp.section_c = -2.2250738585072014e-300;
+  lp.section_r = 1.7976931348623157e+300;
+  lp.section_g = 1.0 / 1.2345678901234567e+300;
+  const double charged = -1.2345678901234567e+300;
+  CHECK(emit::spice_number(lp.section_l).size() == 24);
+  CHECK(emit::spice_number(lp.section_c / 2).size() == 24);
+  CHECK(emit::spice_number(charged).size() == 24);
+  CHECK(ladder_text(lp, charged) == contract_ladder(lp, charged));
+}
+
 TEST_CASE("a long ladder is written in pieces, not held whole") {
   // A 200 000-section ladder (over 20 MB of text) written to a stream that counts what
-  // arrives: it comes in pieces of well under a megabyte, so the writer keeps no whole ladder.
+  // arrives: it comes in pieces of under a megabyte, so the writer keeps no whole ladder.
   struct CountingBuffer : std::streambuf {
     std::size_t bytes = 0;
     std::size_t largest_write = 0;

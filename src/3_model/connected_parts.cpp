@@ -1,6 +1,8 @@
 // Connected parts of a circuit: its lines joined at their end nodes, by union-find.
 #include "3_model/connected_parts.h"
 
+#include <unordered_map>
+
 namespace rungs::model {
 
 DisjointSets::DisjointSets(std::size_t count) : parent_(count) {
@@ -22,11 +24,13 @@ void DisjointSets::unite(std::size_t a, std::size_t b) {
 }
 
 ConnectedParts::ConnectedParts(const Circuit& circuit) {
-  std::map<std::string, std::size_t, std::less<>> id;
+  // Hashed, and by views of the circuit's own names: a large board has thousands of nodes,
+  // each met several times, and ordered string maps made this a tenth of `rungs emit`.
+  std::unordered_map<std::string_view, std::size_t> id;
   DisjointSets sets;
   const auto node = [&](const std::string& name) -> std::optional<std::size_t> {
     if (is_ground(name)) return std::nullopt;
-    auto [it, fresh] = id.emplace(name, sets.size());
+    auto [it, fresh] = id.try_emplace(name, sets.size());
     if (fresh) sets.add();
     return it->second;
   };
@@ -39,14 +43,17 @@ ConnectedParts::ConnectedParts(const Circuit& circuit) {
   for (const Load& l : circuit.loads) node(l.node);
 
   // Number the parts in the order their first line, drive or load meets them.
-  std::map<std::size_t, std::size_t> part_of_root;
+  constexpr std::size_t kUnnumbered = static_cast<std::size_t>(-1);
+  std::vector<std::size_t> part_of_root(sets.size(), kUnnumbered);
+  std::vector<bool> recorded(sets.size(), false);
   const auto part = [&](const std::string& name) -> std::optional<std::size_t> {
     const auto i = node(name);
     if (!i) return std::nullopt;
-    auto [it, fresh] = part_of_root.emplace(sets.find(*i), count_);
-    if (fresh) ++count_;
-    node_part_.emplace(name, it->second);
-    return it->second;
+    std::size_t& p = part_of_root[sets.find(*i)];
+    if (p == kUnnumbered) p = count_++;
+    if (!recorded[*i]) node_part_.emplace(name, p);
+    recorded[*i] = true;
+    return p;
   };
   for (const Line& l : circuit.lines) {
     const auto near = part(l.near);

@@ -4,6 +4,7 @@
 #include <ostream>
 #include <string>
 
+#include "6_emit/deck_buffer.h"
 #include "5_plan/plan.h"
 
 namespace rungs::emit {
@@ -15,6 +16,8 @@ namespace rungs::emit {
 /// node m<k>; a shunt G is a resistor of 1/G beside each C. With `charged`, every capacitor
 /// starts at that voltage (IC=, for a `uic` transient). Inner nodes are n<k> and m<k>.
 /// Returns the number of elements written.
+long long write_ladder(DeckBuffer& out, const plan::LinePlan& line, std::optional<double> charged);
+/// The same, into a stream (through a DeckBuffer of its own, flushed before it returns).
 long long write_ladder(std::ostream& out, const plan::LinePlan& line,
                        std::optional<double> charged);
 

@@ -1,8 +1,8 @@
 // Netlist names that stay distinct once a simulator folds their case.
 #pragma once
-#include <set>
 #include <string>
 #include <string_view>
+#include <unordered_set>
 
 namespace rungs::emit {
 
@@ -16,7 +16,7 @@ class NameTable {
   std::string claim(std::string_view wanted);
 
  private:
-  std::set<std::string> folded_;
+  std::unordered_set<std::string> folded_;
 };
 
 /// A name reduced to what every SPICE reads in a name: letters, digits and _; anything else

@@ -8,6 +8,7 @@
 
 #include <fmt/format.h>
 
+#include "6_emit/deck_buffer.h"
 #include "6_emit/ladder.h"
 #include "6_emit/names.h"
 #include "6_emit/spice_number.h"
@@ -64,7 +65,7 @@ std::string wave_of(const model::Drive& d) {
 /// names; with "_ideal", a copy whose lines are the simulator's ideal lossless lines.
 class TopLevel {
  public:
-  TopLevel(std::ostream& out, const Circuit& circuit, const plan::Plan& plan, NameTable& names,
+  TopLevel(DeckBuffer& out, const Circuit& circuit, const plan::Plan& plan, NameTable& names,
            const std::map<std::string, std::string>& ideal_nodes, double switch_time)
       : out_(out),
         circuit_(circuit),
@@ -181,7 +182,7 @@ class TopLevel {
     }
   }
 
-  std::ostream& out_;
+  DeckBuffer& out_;
   const Circuit& circuit_;
   const plan::Plan& plan_;
   NameTable& names_;
@@ -242,9 +243,10 @@ bool is_deck_marker(std::string_view first_line) {
   return first_line.substr(0, kMarkerStart.size()) == kMarkerStart;
 }
 
-std::string write_netlist(std::ostream& out, const Circuit& circuit, const plan::Plan& plan,
+std::string write_netlist(std::ostream& stream, const Circuit& circuit, const plan::Plan& plan,
                        const NetlistOrigin& source, const TemplateSet& templates,
                        const NetlistOptions& options) {
+  DeckBuffer out(stream);
   std::string error;
   auto emit_template = [&](std::string_view name, const TemplateValues& values) {
     auto text = templates.find(name);
@@ -260,7 +262,7 @@ std::string write_netlist(std::ostream& out, const Circuit& circuit, const plan:
     out << filled.text;
   };
 
-  out << deck_marker(source.name) << '\n';
+  out << deck_marker(source.name) << "\n";
   emit_template("header", {{"design", circuit.name},
                            {"source_hash", source.hash},
                            {"lines", fmt::format("{} line{}", circuit.lines.size(), circuit.lines.size() == 1 ? "" : "s")},

@@ -30,8 +30,8 @@ namespace {
 /// keeps the first bytes written. With an `open_sink`, it also writes the content to the
 /// stream buffer that `open_sink` opens, but only from the first byte that differs (copying
 /// the equal part from the existing file then), so a file that stays the same costs no
-/// write at all. It gathers small writes in its own buffer: a deck comes a few bytes at a
-/// time.
+/// write at all. It gathers small writes in its own buffer and takes large ones as they
+/// come.
 class ComparingBuffer : public std::streambuf {
  public:
   using SinkOpener = std::function<std::streambuf*()>;
@@ -72,6 +72,14 @@ class ComparingBuffer : public std::streambuf {
     drain();
     return 0;
   }
+  /// A large write (a deck comes in pieces of up to a megabyte) is taken as it is, after
+  /// what was gathered before it, instead of being copied through the buffer.
+  std::streamsize xsputn(const char* data, std::streamsize n) override {
+    if (static_cast<std::size_t>(n) < pending_.size()) return std::streambuf::xsputn(data, n);
+    drain();
+    take(data, static_cast<std::size_t>(n));
+    return n;
+  }
 
  private:
   /// Opens the sink and copies into it the `matched_` bytes that were equal.
@@ -101,10 +109,16 @@ class ComparingBuffer : public std::streambuf {
       sink_failed_ = true;
   }
 
+  /// Passes on what was gathered and empties the buffer.
   void drain() {
-    const std::size_t n = static_cast<std::size_t>(pptr() - pbase());
+    take(pbase(), static_cast<std::size_t>(pptr() - pbase()));
+    setp(pending_.data(), pending_.data() + pending_.size());
+  }
+
+  /// Compares `n` bytes of content with the existing file and writes them to the sink once
+  /// they differ (or there is no file).
+  void take(const char* data, std::size_t n) {
     if (n == 0) return;
-    const char* data = pbase();
     if (head_.size() < head_bytes_) head_.append(data, std::min(n, head_bytes_ - head_.size()));
     if (same_) {
       compare_.resize(n);
@@ -117,7 +131,6 @@ class ComparingBuffer : public std::streambuf {
         start_sink();
     }
     if (!same_) put(data, n);
-    setp(pending_.data(), pending_.data() + pending_.size());
   }
 
   std::istream* existing_;
