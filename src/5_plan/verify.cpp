@@ -118,7 +118,8 @@ PartialErrors measure_partial(const model::Circuit& circuit, const sim::Response
 
 Verification verify_against(const model::Circuit& circuit, const Plan& plan,
                             const sim::Response& exact, const sim::ReferenceOptions& o,
-                            sim::ResponseWorkspace& ws, bool with_rule = true) {
+                            sim::ResponseWorkspace& ws, bool with_rule = true,
+                            bool keep_end_traces = false) {
   const sim::LadderMeasurement planned =
       sim::measure_ladder_error(circuit, exact, ladder_specs(plan, false), o, &ws);
   const sim::LadderMeasurement rule =
@@ -127,6 +128,7 @@ Verification verify_against(const model::Circuit& circuit, const Plan& plan,
   Verification v;
   v.error_estimate = planned.error_estimate;
   v.reference_within_target = exact.error_estimate.within_target;
+  if (keep_end_traces) v.end_traces = end_traces(circuit, exact, planned.ladder);
   v.lines.resize(circuit.lines.size());
   for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
     LineVerdict& lv = v.lines[k];
@@ -230,15 +232,17 @@ void closing_voltages_on(const model::Circuit& circuit, Plan& plan,
     plan.closing_voltage[r.switches[i].load] = r.switch_voltages[i];
 }
 
-Verification verify_part(const model::Circuit& circuit, const Plan& plan) {
+Verification verify_part(const model::Circuit& circuit, const Plan& plan,
+                         const VerifyOptions& options) {
   const sim::ReferenceOptions o = reference_options(plan);
   sim::ResponseWorkspace ws;
   const sim::Response exact = sim::exact_reference(circuit, o, &ws);
-  return verify_against(circuit, plan, exact, o, ws);
+  return verify_against(circuit, plan, exact, o, ws, true, options.keep_end_traces);
 }
 
 std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
-                                                 const Plan& analytic, ThreadPool& pool) {
+                                                 const Plan& analytic, ThreadPool& pool,
+                                                 const VerifyOptions& options) {
   Plan plan = analytic;
   const sim::ReferenceOptions o = reference_options(plan);
   sim::ResponseWorkspace ws;
@@ -309,7 +313,7 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
     for (std::size_t j = 0; j < n; ++j) raised = raised || plan.lines[j].sections != before[j];
     if (raised) v = verify_against(circuit, plan, exact, o, ws, false);
   }
-  v = verify_against(circuit, plan, exact, o, ws);
+  v = verify_against(circuit, plan, exact, o, ws, true, options.keep_end_traces);
   for (std::size_t k = 0; k < n; ++k) v.lines[k].owed_to_fixed = owed_to_fixed[k];
 
   closing_voltages_on(circuit, plan, exact.grid, ws);
@@ -327,6 +331,7 @@ void merge_part(const sim::CircuitPart& part, const Verification& from, Verifica
   for (std::size_t j = 0; j < part.lines.size(); ++j) into.lines[part.lines[j]] = from.lines[j];
   into.error_estimate = std::max(into.error_estimate, from.error_estimate);
   into.reference_within_target = into.reference_within_target && from.reference_within_target;
+  into.end_traces.insert(into.end_traces.end(), from.end_traces.begin(), from.end_traces.end());
 }
 
 /// A plan is made from its circuit; one of another circuit is a caller's mistake.
@@ -348,7 +353,8 @@ void set_closing_voltages(const model::Circuit& circuit, Plan& plan) {
   }
 }
 
-Verification verify_plan(const model::Circuit& circuit, const Plan& plan, ThreadPool& pool) {
+Verification verify_plan(const model::Circuit& circuit, const Plan& plan, ThreadPool& pool,
+                         const VerifyOptions& options) {
   check_plan_of(circuit, plan);
   Verification v;
   v.lines.resize(circuit.lines.size());
@@ -358,14 +364,14 @@ Verification verify_plan(const model::Circuit& circuit, const Plan& plan, Thread
   std::vector<std::size_t> items(parts.size());
   std::iota(items.begin(), items.end(), std::size_t{0});
   for_each_item(pool, items, [&](std::size_t i, sim::ResponseWorkspace&) {
-    verdicts[i] = verify_part(parts[i].circuit, part_plan(plan, parts[i]));
+    verdicts[i] = verify_part(parts[i].circuit, part_plan(plan, parts[i]), options);
   });
   for (std::size_t i = 0; i < parts.size(); ++i) merge_part(parts[i], verdicts[i], v);
   return v;
 }
 
 std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const Plan& analytic,
-                                            ThreadPool& pool) {
+                                            ThreadPool& pool, const VerifyOptions& options) {
   check_plan_of(circuit, analytic);
   Plan plan = analytic;
   plan.closing_voltage.assign(circuit.loads.size(), 0.0);
@@ -379,7 +385,7 @@ std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const
   std::vector<std::size_t> items(parts.size());
   std::iota(items.begin(), items.end(), std::size_t{0});
   for_each_item(pool, items, [&](std::size_t i, sim::ResponseWorkspace&) {
-    done[i] = plan_verified_part(parts[i].circuit, part_plan(analytic, parts[i]), pool);
+    done[i] = plan_verified_part(parts[i].circuit, part_plan(analytic, parts[i]), pool, options);
   });
   for (std::size_t i = 0; i < parts.size(); ++i) {
     merge_part(parts[i], done[i].first, plan);
@@ -387,6 +393,7 @@ std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const
   }
   plan.elements = 0;
   for (const LinePlan& lp : plan.lines) plan.elements += lp.elements;
+  plan.measured = true;
   plan.time_step = deck_time_step(circuit, plan);
   return {plan, v};
 }
