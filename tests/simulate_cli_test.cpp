@@ -297,7 +297,7 @@ TEST_CASE("check --simulate: a deck whose maximum step is too coarse fails, the 
       "node (a|b): the simulated deck errs [0-9.]+ % of the swing, over its 2 % budget \\(the "
       "ladder's own error [0-9.e-]+ %, the simulation's [0-9.]+ % at [0-9.]+ ns\\); the "
       "simulation is over its share of 0.5 %: write set step ([0-9.]+)ps in the description "
-      "\\(the deck's maximum step is 100ps\\), or try set method gear\n");
+      "\\(the deck's maximum step is 100ps\\)\n");
   std::smatch m;
   REQUIRE(std::regex_search(r.out, m, failure));
   // The step it suggests does what it says.

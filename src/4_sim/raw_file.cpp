@@ -14,20 +14,20 @@ namespace rungs::sim {
 
 namespace {
 
-bool is_space(char c) {
+bool is_raw_space(char c) {
   return c == ' ' || c == '\t' || c == '\r' || c == '\n';
 }
 
 std::string_view trim(std::string_view s) {
-  while (!s.empty() && is_space(s.front())) s.remove_prefix(1);
-  while (!s.empty() && is_space(s.back())) s.remove_suffix(1);
+  while (!s.empty() && is_raw_space(s.front())) s.remove_prefix(1);
+  while (!s.empty() && is_raw_space(s.back())) s.remove_suffix(1);
   return s;
 }
 
 /// A cursor over the bytes that knows its line number, for messages.
-class Reader {
+class RawReader {
  public:
-  explicit Reader(std::string_view bytes) : bytes_(bytes) {}
+  explicit RawReader(std::string_view bytes) : bytes_(bytes) {}
 
   bool at_end() const { return pos_ >= bytes_.size(); }
   std::size_t offset() const { return pos_; }
@@ -46,7 +46,7 @@ class Reader {
 
   /// Skips whitespace and blank lines.
   void skip_space() {
-    while (pos_ < bytes_.size() && is_space(bytes_[pos_])) {
+    while (pos_ < bytes_.size() && is_raw_space(bytes_[pos_])) {
       if (bytes_[pos_] == '\n') ++line_;
       ++pos_;
     }
@@ -56,7 +56,7 @@ class Reader {
   std::string_view next_word() {
     skip_space();
     const std::size_t start = pos_;
-    while (pos_ < bytes_.size() && !is_space(bytes_[pos_])) ++pos_;
+    while (pos_ < bytes_.size() && !is_raw_space(bytes_[pos_])) ++pos_;
     return bytes_.substr(start, pos_ - start);
   }
 
@@ -95,7 +95,7 @@ double number_of(std::string_view word, std::size_t point, int line) {
 }
 
 /// The values of a plot with `n` variables and `points` points, ASCII ("Values:").
-void read_ascii(Reader& in, RawPlot& plot, std::size_t points) {
+void read_ascii(RawReader& in, RawPlot& plot, std::size_t points) {
   const std::size_t n = plot.variables.size();
   for (std::size_t p = 0; p < points; ++p) {
     const std::string_view index = in.next_word();
@@ -117,7 +117,7 @@ void read_ascii(Reader& in, RawPlot& plot, std::size_t points) {
 }
 
 /// The values of a plot, binary ("Binary:"): doubles, a point's variables together.
-void read_binary(Reader& in, RawPlot& plot, std::size_t points) {
+void read_binary(RawReader& in, RawPlot& plot, std::size_t points) {
   const std::size_t n = plot.variables.size();
   const std::size_t need = n * points * sizeof(double);
   if (in.remaining() < need)
@@ -132,7 +132,7 @@ void read_binary(Reader& in, RawPlot& plot, std::size_t points) {
 }
 
 /// One plot, from its header to the end of its values.
-RawPlot read_plot(Reader& in) {
+RawPlot read_plot(RawReader& in) {
   RawPlot plot;
   std::size_t variables = 0, points = 0;
   bool have_variables = false, have_points = false;
@@ -180,7 +180,7 @@ RawPlot read_plot(Reader& in) {
           throw RawFileError(fmt::format("raw file ends in its list of {} variables", variables));
         const std::string_view entry = in.next_line();
         // "\tINDEX\tNAME\tTYPE": the name is the second word.
-        Reader words(entry);
+        RawReader words(entry);
         const std::string_view index = words.next_word();
         const std::string_view name = words.next_word();
         if (name.empty() || count_of(index, "a variable's index", in.line()) != i)
@@ -220,7 +220,7 @@ const std::vector<double>* RawPlot::find(std::string_view variable) const {
 }
 
 std::vector<RawPlot> read_raw_file(std::string_view bytes) {
-  Reader in(bytes);
+  RawReader in(bytes);
   std::vector<RawPlot> plots;
   for (;;) {
     in.skip_space();

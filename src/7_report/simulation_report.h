@@ -20,8 +20,8 @@ std::string simulation_table(const model::Circuit& circuit, const plan::Plan& pl
 /// One line a line end whose simulated error is over its budget: "node N: the simulated deck
 /// errs X % of the swing, over its B % budget; ..." naming the part that is over (the
 /// simulation, beyond its share kSimulationShare of the budget, or the ladder, which leaves
-/// the simulation less) and what to write in the description: a smaller `set step`, the other
-/// `set method`, or a smaller tolerance= on the lines there (more sections).
+/// the simulation less) and what to write in the description: a smaller `set step` (and, for
+/// gear, `set method trap`), or a smaller tolerance= on the lines there (more sections).
 std::vector<std::string> simulation_failures(const model::Circuit& circuit, const plan::Plan& plan,
                                              const std::vector<plan::SimulatedEnd>& ends);
 
