@@ -170,7 +170,9 @@ int wait_for(pid_t pid, double limit, PrivateFolder& folder, StopSignals& signal
     int status = 0;
     const pid_t r = ::waitpid(pid, &status, WNOHANG);
     if (r == pid) return status;
-    if (r < 0 && errno != EINTR) return status;
+    if (r < 0 && errno != EINTR)
+      throw SimulatorFailed(
+          fmt::format("cannot wait for the simulator (process {}): {}", pid, std::strerror(errno)));
     if (stop_signal != 0) {
       const int which = stop_signal;
       ::kill(-pid, SIGKILL);
