@@ -107,6 +107,20 @@ TEST_CASE("which part of a simulated error is over, and the advice for each") {
             "ladder's own error 1.8 %, the simulation's 0.4 % at 0 ns); the ladder leaves the "
             "simulation less than its share of 0.5 %: more sections: give t tolerance=1.5%"});
 
+  // An estimated ladder that is over the budget on its own is told to be measured instead.
+  plan::SimulatedEnd alone = end;
+  alone.ladder_error = 0.025;
+  alone.simulated_error = 0.026;
+  CHECK(report::simulation_failures(c.circuit, c.plan, {alone})
+            .front()
+            .find("; the ladder alone is over the budget: more sections: plan without --analytic, "
+                  "which measures the counts") != std::string::npos);
+  Case measured;
+  measured.plan.measured = true;
+  CHECK(report::simulation_failures(measured.circuit, measured.plan, {alone})
+            .front()
+            .find("more sections: give t tolerance=1.5%") != std::string::npos);
+
   end.simulation_error = 0.007;  // over its share of 0.25 x 2 %
   end.simulation_at = 12.5e-9;
   CHECK(plan::verdict_of(end) == plan::SimulationVerdict::simulation_over);

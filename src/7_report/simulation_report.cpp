@@ -91,6 +91,12 @@ std::vector<std::string> simulation_failures(const model::Circuit& circuit, cons
       // to 3.8 times more than trap, so only gear is told to try the other.
       if (circuit.settings.method == model::IntegrationMethod::gear)
         line += ", or set method trap, which errs less at the same step";
+    } else if (end.ladder_error > end.budget && !plan.measured) {
+      // The analytic estimate chose the counts and missed: a smaller tolerance would only
+      // ask the same estimate again.
+      line +=
+          "; the ladder alone is over the budget: more sections: plan without --analytic, "
+          "which measures the counts";
     } else {
       line += fmt::format(
           "; the ladder leaves the simulation less than its share of {}: more sections: give "

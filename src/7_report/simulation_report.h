@@ -21,7 +21,8 @@ std::string simulation_table(const model::Circuit& circuit, const plan::Plan& pl
 /// errs X % of the swing, over its B % budget; ..." naming the part that is over (the
 /// simulation, beyond its share kSimulationShare of the budget, or the ladder, which leaves
 /// the simulation less) and what to write in the description: a smaller `set step` (and, for
-/// gear, `set method trap`), or a smaller tolerance= on the lines there (more sections).
+/// gear, `set method trap`), or a smaller tolerance= on the lines there (more sections), or,
+/// when an estimated (--analytic) ladder alone is over, planning without --analytic.
 std::vector<std::string> simulation_failures(const model::Circuit& circuit, const plan::Plan& plan,
                                              const std::vector<plan::SimulatedEnd>& ends);
 
