@@ -573,9 +573,29 @@ TEST_CASE("a misspelt setting suggests the nearest one", "[settings]") {
 
 TEST_CASE("an unknown setting lists the settings", "[settings]") {
   CHECK(diagnose("set foo 1ns\n") ==
-        "bad.rungs:1:5: error: unknown setting 'foo'; expected one of rise, tolerance, shape, window\n"
+        "bad.rungs:1:5: error: unknown setting 'foo'; expected one of rise, tolerance, shape, "
+        "window, method, step\n"
         "set foo 1ns\n"
         "    ^~~\n");
+}
+
+TEST_CASE("an integration method that is neither trap nor gear", "[settings]") {
+  CHECK(diagnose("set method gaer\n") ==
+        "bad.rungs:1:12: error: unknown integration method 'gaer'; did you mean 'gear'?\n"
+        "set method gaer\n"
+        "           ^~~~\n");
+  CHECK(diagnose("set method euler\n") ==
+        "bad.rungs:1:12: error: unknown integration method 'euler'; expected one of trap, gear\n"
+        "set method euler\n"
+        "           ^~~~~\n");
+}
+
+TEST_CASE("the deck's maximum step is a positive time", "[settings]") {
+  CHECK(diagnose("set step 0ps\n") ==
+        "bad.rungs:1:10: error: step must be greater than zero\n"
+        "set step 0ps\n"
+        "         ^~~\n");
+  CHECK(diagnose("set step 5\n").find("bad.rungs:1:10: error:") == 0);
 }
 
 TEST_CASE("a setting given twice", "[settings]") {

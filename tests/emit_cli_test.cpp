@@ -584,9 +584,24 @@ TEST_CASE("the option --with-ideal adds the simulator's ideal line beside each l
   CHECK(deck.find(" v(a_ideal) v(b_ideal) v(c_ideal)\n") != std::string::npos);
   // The ladder circuit is as without the option: the plain deck up to its analysis.
   const std::string plain = deck_of(text);
-  const std::string ladder_part = plain.substr(0, plain.find("\n* transient analysis"));
+  const std::string ladder_part = plain.substr(0, plain.find("\n* integration method"));
   CHECK(deck.rfind(ladder_part, 0) == 0);
   CHECK(plain.find("T_") == std::string::npos);
+}
+
+TEST_CASE("set method and set step choose the deck's integration method and maximum step",
+          "[cli]") {
+  // By default: trap, written out, and the planned step on .tran.
+  const std::string plain = deck_of(kSmall);
+  CHECK(plain.find("\n.options method=trap\n") != std::string::npos);
+  CHECK(plain.find("\n* run it: ngspice -b -r DECK.raw DECK.cir ") != std::string::npos);
+  const std::string chosen = deck_of(std::string(kSmall) + "set method gear\nset step 2.5ps\n");
+  CHECK(chosen.find("\n.options method=gear\n") != std::string::npos);
+  CHECK(chosen.find("\n.tran 2.5e-12 ") != std::string::npos);
+  CHECK(chosen.find(" 0 2.5e-12\n") != std::string::npos);
+  // The plan reports the step the deck has.
+  const auto planned = run_rungs("plan --analytic --json -", std::string(kSmall) + "set step 2.5ps\n");
+  CHECK(planned.out.find("\"time_step\": 2.5e-12") != std::string::npos);
 }
 
 TEST_CASE("a template folder (--templates) replaces the deck's fixed parts", "[cli]") {

@@ -14,10 +14,12 @@
 //   unknown, can't find), leaving out ngspice's harmless "Note: No compatibility mode
 //   selected!".
 // - read_raw() reads the first plot of a raw file, binary (ngspice's default) or ASCII
-//   (SPICE_ASCIIRAWFILE=1), real data only; it throws std::runtime_error for anything else.
+//   (SPICE_ASCIIRAWFILE=1), real data only, with rungs' reader (src/4_sim/raw_file.h); it
+//   throws std::runtime_error for anything else.
 //   Vectors are looked up by their raw-file name ("v(rx1)", "time"), case-insensitively;
 //   a bare node name ("rx1") finds its "v(rx1)".
-// - Nothing here knows about rungs: it is a plain ngspice driver.
+// - Apart from the raw-file reader, nothing here knows about rungs: it is a plain ngspice
+//   driver.
 #pragma once
 #include <fcntl.h>
 #include <signal.h>
@@ -36,6 +38,8 @@
 #include <string_view>
 #include <thread>
 #include <vector>
+
+#include "4_sim/raw_file.h"
 
 namespace rungs::testing::ngspice {
 
@@ -267,81 +271,17 @@ class Waveforms {
   std::vector<std::vector<double>> values_;
 };
 
-/// Reads the first plot of a SPICE3 raw file, binary or ASCII. Real data only.
+/// Reads the first plot of a SPICE3 raw file, binary or ASCII, with rungs' own reader
+/// (sim::read_raw_file, which `rungs check --simulate` uses). Real data only.
 inline Waveforms read_raw(const std::string& path) {
   const std::string data = detail::read_text(path);
   if (data.empty()) throw std::runtime_error("raw file '" + path + "' is missing or empty");
-  std::size_t pos = 0;
-  auto next_line = [&]() -> std::string {
-    if (pos >= data.size()) throw std::runtime_error("raw file '" + path + "' ends early");
-    const std::size_t end = data.find('\n', pos);
-    const std::size_t stop = end == std::string::npos ? data.size() : end;
-    std::string line = data.substr(pos, stop - pos);
-    pos = stop + 1;
-    if (!line.empty() && line.back() == '\r') line.pop_back();
-    return line;
-  };
-  auto value_of = [](const std::string& line) {
-    const std::size_t colon = line.find(':');
-    std::string v = line.substr(colon + 1);
-    const std::size_t first = v.find_first_not_of(" \t");
-    return first == std::string::npos ? std::string() : v.substr(first);
-  };
-  std::string plot;
-  std::size_t nvars = 0, npoints = 0;
-  std::vector<std::string> names;
-  bool binary = false;
-  for (;;) {
-    const std::string line = next_line();
-    const std::string key = detail::lower(line.substr(0, line.find(':')));
-    if (key == "plotname") {
-      plot = value_of(line);
-    } else if (key == "flags") {
-      const std::string flags = detail::lower(value_of(line));
-      if (flags.find("complex") != std::string::npos)
-        throw std::runtime_error("raw file '" + path + "' holds complex data");
-    } else if (key == "no. variables") {
-      nvars = std::stoul(value_of(line));
-    } else if (key == "no. points") {
-      npoints = std::stoul(value_of(line));
-    } else if (key == "variables") {
-      for (std::size_t i = 0; i < nvars; ++i) {
-        std::istringstream fields(next_line());
-        std::string index, name;
-        fields >> index >> name;
-        names.push_back(name);
-      }
-    } else if (key == "binary") {
-      binary = true;
-      break;
-    } else if (key == "values") {
-      break;
-    }
+  try {
+    sim::RawPlot plot = sim::read_raw_file(data).front();
+    return Waveforms(plot.name, std::move(plot.variables), std::move(plot.values));
+  } catch (const sim::RawFileError& e) {
+    throw std::runtime_error("raw file '" + path + "': " + e.what());
   }
-  if (nvars == 0 || names.size() != nvars)
-    throw std::runtime_error("raw file '" + path + "' has no variable list");
-  std::vector<std::vector<double>> values(nvars, std::vector<double>(npoints));
-  if (binary) {
-    const std::size_t need = nvars * npoints * sizeof(double);
-    if (data.size() - pos < need) throw std::runtime_error("raw file '" + path + "' is truncated");
-    for (std::size_t p = 0; p < npoints; ++p)
-      for (std::size_t v = 0; v < nvars; ++v)
-        std::memcpy(&values[v][p], data.data() + pos + (p * nvars + v) * sizeof(double),
-                    sizeof(double));
-  } else {
-    std::istringstream body(data.substr(pos));
-    for (std::size_t p = 0; p < npoints; ++p) {
-      std::size_t index = 0;
-      if (!(body >> index) || index != p)
-        throw std::runtime_error("raw file '" + path + "': bad point index");
-      for (std::size_t v = 0; v < nvars; ++v) {
-        std::string token;
-        body >> token;
-        values[v][p] = std::strtod(token.c_str(), nullptr);
-      }
-    }
-  }
-  return Waveforms(plot, names, std::move(values));
 }
 
 }  // namespace rungs::testing::ngspice

@@ -5,6 +5,10 @@
 
 namespace rungs::model {
 
+std::string_view method_name(IntegrationMethod method) {
+  return method == IntegrationMethod::gear ? "gear" : "trap";
+}
+
 std::string_view shape_name(Shape shape) {
   switch (shape) {
     case Shape::pi: return "pi";

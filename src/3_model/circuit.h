@@ -13,6 +13,10 @@ namespace rungs::model {
 /// Section shape of a ladder: pi (C/2, L, C/2), T (L/2, C, L/2) or L (L then C).
 enum class Shape { pi, t, l };
 
+/// The SPICE3 integration method the deck asks the simulator for (`.options method=`):
+/// trapezoidal, or Gear's backward-difference formulas.
+enum class IntegrationMethod { trap, gear };
+
 /// An edge of a drive, or the one a line is planned for: the 10-90 % time of a linear ramp and
 /// the 0-100 % time of the whole ramp (ramp_time in 3_model/edges.h).
 struct Edge {
@@ -95,6 +99,8 @@ struct Settings {
   double tolerance = 0.02;        // fraction of the swing
   Shape shape = Shape::pi;
   std::optional<double> window;   // s
+  IntegrationMethod method = IntegrationMethod::trap;  // `set method`
+  std::optional<double> step;     // s, the deck's maximum time step (`set step`); else chosen
 };
 
 struct Circuit {
@@ -107,6 +113,9 @@ struct Circuit {
 
 /// The name of a shape as the language writes it: "pi", "t", "l".
 std::string_view shape_name(Shape shape);
+
+/// The name of an integration method as the language and SPICE write it: "trap", "gear".
+std::string_view method_name(IntegrationMethod method);
 
 /// True for the ground node as written: "0" or "gnd" in any case.
 bool is_ground(std::string_view node);

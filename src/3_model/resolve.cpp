@@ -39,6 +39,7 @@ std::optional<double> read(const ast::Value& value, Dimension dimension, Diagnos
 }
 
 constexpr std::string_view kShapes[] = {"pi", "t", "l"};
+constexpr std::string_view kMethods[] = {"trap", "gear"};
 
 std::optional<Shape> read_shape(const ast::Value& value, Diagnostics& d) {
   if (value.text == "pi") return Shape::pi;
@@ -164,7 +165,8 @@ struct Resolver {
   }
 
   void setting(const ast::SetStatement& s) {
-    static constexpr std::string_view keys[] = {"rise", "tolerance", "shape", "window"};
+    static constexpr std::string_view keys[] = {"rise",   "tolerance", "shape",
+                                                "window", "method",    "step"};
     const std::string& key = s.key.text;
     if (std::find(std::begin(keys), std::end(keys), key) == std::end(keys)) {
       d.error(s.key.span,
@@ -179,6 +181,12 @@ struct Resolver {
     Settings& st = circuit.settings;
     if (key == "shape") {
       if (auto shape = read_shape(s.value, d)) st.shape = *shape;
+    } else if (key == "method") {
+      if (s.value.text == "trap" || s.value.text == "gear")
+        st.method = s.value.text == "gear" ? IntegrationMethod::gear : IntegrationMethod::trap;
+      else
+        d.error(s.value.span, fmt::format("unknown integration method '{}'{}", s.value.text,
+                                          syntax::did_you_mean(s.value.text, kMethods)));
     } else if (key == "tolerance") {
       if (auto v = read(s.value, Dimension::ratio, d)) {
         check_tolerance(v, &s.value, d);
@@ -186,7 +194,7 @@ struct Resolver {
       }
     } else if (auto v = read(s.value, Dimension::time, d)) {
       if (!(*v > 0.0)) d.error(s.value.span, fmt::format("{} must be greater than zero", key));
-      (key == "rise" ? st.rise : st.window) = *v;
+      (key == "rise" ? st.rise : key == "step" ? st.step : st.window) = *v;
     }
   }
 

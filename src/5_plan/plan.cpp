@@ -156,6 +156,7 @@ Plan part_plan(const Plan& whole, const sim::CircuitPart& part) {
   Plan p;
   p.window = whole.window;
   p.time_step = whole.time_step;
+  p.measured = whole.measured;
   for (const std::size_t k : part.lines) {
     p.lines.push_back(whole.lines[k]);
     p.elements += whole.lines[k].elements;
@@ -168,6 +169,7 @@ Plan part_plan(const Plan& whole, const sim::CircuitPart& part) {
 }
 
 double deck_time_step(const model::Circuit& circuit, const Plan& plan) {
+  if (circuit.settings.step) return *circuit.settings.step;
   double shortest_ramp = std::numeric_limits<double>::infinity();
   for (const model::Drive& d : circuit.drives)
     if (d.edge && d.edge->rise > 0.0) shortest_ramp = std::min(shortest_ramp, d.edge->ramp);
@@ -178,7 +180,8 @@ double deck_time_step(const model::Circuit& circuit, const Plan& plan) {
     if (plan.lines[k].sections > 0)
       shortest_section =
           std::min(shortest_section, circuit.lines[k].delay / plan.lines[k].sections);
-  const double step = std::min(shortest_ramp / 40.0, shortest_section / 8.0);
+  const double steps_a_section = plan.measured ? 8.0 : 16.0;
+  const double step = std::min(shortest_ramp / 40.0, shortest_section / steps_a_section);
   return std::isfinite(step) ? step : plan.window / 1000.0;
 }
 

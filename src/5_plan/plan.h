@@ -34,6 +34,9 @@ struct Plan {
   long long elements = 0;  // ladder elements of all lines
   double window = 0.0;     // s, simulated time
   double time_step = 0.0;  // s, the simulator's maximum step
+  /// The section counts were measured against the exact reference (plan_verified), not only
+  /// estimated (plan_circuit): the time step allows for the difference (deck_time_step).
+  bool measured = false;
   /// s, parallel to circuit.loads: a switched load's closing time, over which its switch's
   /// voltage falls linearly from its open value to zero (in the deck and in the exact
   /// reference alike): the 0-100 % ramp (rise/0.8) of the fastest line at its node. 0 for a
@@ -55,10 +58,22 @@ long long ladder_elements(int sections, model::Shape shape, bool has_r, bool has
 /// cutoff, predicted error and element count (rise, shape and tolerance must be set).
 void set_sections(const model::Line& line, LinePlan& plan, int sections);
 
-/// The simulator's maximum step for a plan's counts: it resolves the fastest ramp (a drive's
-/// stored edge or a switch's closing) over 40 steps and one section's delay over 8 (factors
-/// measured with ngspice in tests/emit_ngspice_test.cpp); a window's thousandth when neither
-/// bounds it.
+/// The part of each line's tolerance that the deck's transient settings leave to the
+/// simulator: its own error (its waveform against the exact solution of the same ladder) is
+/// meant to stay under this share, and the ladder's error under the rest.
+inline constexpr double kSimulationShare = 0.25;
+
+/// The simulator's maximum step for a plan's counts: `set step` when the description gives
+/// one; else it resolves the fastest ramp (a drive's stored edge or a switch's closing) over 40
+/// steps and the shortest section delay over 8 when the counts are measured (plan.measured), 16
+/// when they are only estimated. Why the counts matter: the simulator's error on a ladder is
+/// its phase error on the ladder's own ringing, so it grows with the ladder's error e, about
+/// K (step / section delay)^2 e with K up to 14 (measured with ngspice's trap integration on
+/// the examples and the test decks): 8 steps a section keep it under kSimulationShare of the
+/// tolerance for a ladder within its budget, 16 for an estimated ladder up to about four times
+/// over it (the analytic plan of examples/plane_load_step.rungs errs 5.4 times its budget). A
+/// window's thousandth when nothing bounds it. tests/emit_ngspice_test.cpp and `rungs check
+/// --simulate` measure what it gives.
 double deck_time_step(const model::Circuit& circuit, const Plan& plan);
 
 /// The plan of one part, cut from the whole circuit's plan.

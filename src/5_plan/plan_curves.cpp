@@ -13,7 +13,7 @@ namespace {
 
 NodeTraces traces_at(const std::string& node, const sim::Waveforms& exact,
                      const sim::Waveforms& ladder) {
-  NodeTraces traces{.node = node, .t = exact.t, .exact = {}, .ladder = {}};
+  NodeTraces traces{.node = node, .t = exact.t, .exact = {}, .ladder = {}, .simulated = {}};
   if (const sim::NodeWaveform* v = sim::find_node(exact, node)) traces.exact = v->v;
   if (const sim::NodeWaveform* v = sim::find_node(ladder, node)) traces.ladder = v->v;
   return traces;

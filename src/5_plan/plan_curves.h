@@ -15,6 +15,7 @@ struct NodeTraces {
   std::vector<double> t;
   std::vector<double> exact;
   std::vector<double> ladder;
+  std::vector<double> simulated;  // a simulator's run of the deck, when one was made; else empty
 };
 
 /// One line's measured whole-circuit error (fraction of the swing) at a few section counts

@@ -151,7 +151,8 @@ PartialErrors measure_partial(const model::Circuit& circuit, const sim::Response
 Verification verify_against(const model::Circuit& circuit, const Plan& plan,
                             const sim::Response& exact, const sim::ReferenceOptions& o,
                             sim::ResponseWorkspace& ws, bool with_rule = true,
-                            sim::LadderMeasurement* measured = nullptr) {
+                            sim::LadderMeasurement* measured = nullptr,
+                            bool keep_end_traces = false) {
   sim::LadderMeasurement planned =
       sim::measure_ladder_error(circuit, exact, ladder_specs(plan, false), o, &ws);
   const sim::LadderMeasurement rule =
@@ -160,6 +161,7 @@ Verification verify_against(const model::Circuit& circuit, const Plan& plan,
   Verification v;
   v.error_estimate = planned.error_estimate;
   v.reference_within_target = exact.error_estimate.within_target;
+  if (keep_end_traces) v.end_traces = end_traces(circuit, exact, planned.ladder);
   v.lines.resize(circuit.lines.size());
   for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
     LineVerdict& lv = v.lines[k];
@@ -452,7 +454,8 @@ void attribute(PartMeasures& pm, const PartialErrors& fixed, const std::vector<b
   }
 }
 
-Verification verify_part(const model::Circuit& circuit, const Plan& plan) {
+Verification verify_part(const model::Circuit& circuit, const Plan& plan,
+                         const VerifyOptions& options) {
   const sim::ReferenceOptions o = reference_options(plan);
   sim::ResponseWorkspace ws;
   const sim::Response exact = sim::exact_reference(circuit, o, &ws);
@@ -460,7 +463,8 @@ Verification verify_part(const model::Circuit& circuit, const Plan& plan) {
   PartMeasures pm{circuit, exact, o, ends, plan, {}};
   pm.seen.resize(circuit.lines.size());
   sim::LadderMeasurement together;
-  Verification v = verify_against(circuit, plan, exact, o, ws, true, &together);
+  Verification v =
+      verify_against(circuit, plan, exact, o, ws, true, &together, options.keep_end_traces);
   const PartialErrors fixed = fixed_errors(pm, ws);
   attribute(pm, fixed, left_to_fixed(ends, fixed), together, ws, v);
   return v;
@@ -669,7 +673,8 @@ void settle_on_full_grid(const model::Circuit& circuit, const sim::Response& exa
 }
 
 std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
-                                                 const Plan& analytic, ThreadPool& pool) {
+                                                 const Plan& analytic, ThreadPool& pool,
+                                                 const VerifyOptions& options) {
   Plan plan = analytic;
   const sim::ReferenceOptions o = reference_options(plan);
   sim::ResponseWorkspace ws;
@@ -717,7 +722,7 @@ std::pair<Plan, Verification> plan_verified_part(const model::Circuit& circuit,
     settle_on_full_grid(circuit, exact, o, ends, adjustable, floor, left, owed_to_fixed, pool, ws,
                         plan);
   sim::LadderMeasurement together;
-  v = verify_against(circuit, plan, exact, o, ws, true, &together);
+  v = verify_against(circuit, plan, exact, o, ws, true, &together, options.keep_end_traces);
   for (std::size_t k = 0; k < n; ++k) v.lines[k].owed_to_fixed = owed_to_fixed[k];
   // The attribution the report prints is measured on the full grid, as the verdicts are.
   if (coarse) {
@@ -748,6 +753,7 @@ void merge_part(const sim::CircuitPart& part, const Verification& from, Verifica
     into.advice.push_back(a);
   }
   into.reference_within_target = into.reference_within_target && from.reference_within_target;
+  into.end_traces.insert(into.end_traces.end(), from.end_traces.begin(), from.end_traces.end());
 }
 
 /// A plan is made from its circuit; one of another circuit is a caller's mistake.
@@ -769,7 +775,8 @@ void set_closing_voltages(const model::Circuit& circuit, Plan& plan) {
   }
 }
 
-Verification verify_plan(const model::Circuit& circuit, const Plan& plan, ThreadPool& pool) {
+Verification verify_plan(const model::Circuit& circuit, const Plan& plan, ThreadPool& pool,
+                         const VerifyOptions& options) {
   check_plan_of(circuit, plan);
   Verification v;
   v.lines.resize(circuit.lines.size());
@@ -779,14 +786,14 @@ Verification verify_plan(const model::Circuit& circuit, const Plan& plan, Thread
   std::vector<std::size_t> items(parts.size());
   std::iota(items.begin(), items.end(), std::size_t{0});
   for_each_item(pool, items, [&](std::size_t i, sim::ResponseWorkspace&) {
-    verdicts[i] = verify_part(parts[i].circuit, part_plan(plan, parts[i]));
+    verdicts[i] = verify_part(parts[i].circuit, part_plan(plan, parts[i]), options);
   });
   for (std::size_t i = 0; i < parts.size(); ++i) merge_part(parts[i], verdicts[i], v);
   return v;
 }
 
 std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const Plan& analytic,
-                                            ThreadPool& pool) {
+                                            ThreadPool& pool, const VerifyOptions& options) {
   check_plan_of(circuit, analytic);
   Plan plan = analytic;
   plan.closing_voltage.assign(circuit.loads.size(), 0.0);
@@ -800,7 +807,7 @@ std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const
   std::vector<std::size_t> items(parts.size());
   std::iota(items.begin(), items.end(), std::size_t{0});
   for_each_item(pool, items, [&](std::size_t i, sim::ResponseWorkspace&) {
-    done[i] = plan_verified_part(parts[i].circuit, part_plan(analytic, parts[i]), pool);
+    done[i] = plan_verified_part(parts[i].circuit, part_plan(analytic, parts[i]), pool, options);
   });
   for (std::size_t i = 0; i < parts.size(); ++i) {
     merge_part(parts[i], done[i].first, plan);
@@ -808,6 +815,7 @@ std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const
   }
   plan.elements = 0;
   for (const LinePlan& lp : plan.lines) plan.elements += lp.elements;
+  plan.measured = true;
   plan.time_step = deck_time_step(circuit, plan);
   return {plan, v};
 }

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "3_model/circuit.h"
+#include "5_plan/end_traces.h"
 #include "5_plan/plan.h"
 #include "5_plan/thread_pool.h"
 #include "4_sim/frequency_reference.h"
@@ -74,6 +75,14 @@ struct Verification {
   bool reference_within_target = false;
   std::vector<EndAccount> ends;  // every line end, once
   std::vector<FixedAdvice> advice;
+  /// With VerifyOptions::keep_end_traces: the exact and the planned ladders' waveforms at every
+  /// line end, part after part, for comparing a simulator's run of the deck with them.
+  std::vector<EndTraces> end_traces;
+};
+
+/// What a verification keeps beside its verdicts.
+struct VerifyOptions {
+  bool keep_end_traces = false;  // fill Verification::end_traces (memory: three per end)
 };
 
 /// Each connected part of the circuit (sim::connected_parts) is measured on its own, against its
@@ -83,7 +92,8 @@ struct Verification {
 /// tolerance over 20; window plan.window) and, for the common rule's counts, their error too.
 /// Throws what sim::exact_reference throws (e.g. std::invalid_argument for a zero window).
 /// The parts are measured side by side on `pool`.
-Verification verify_plan(const model::Circuit& circuit, const Plan& plan, ThreadPool& pool);
+Verification verify_plan(const model::Circuit& circuit, const Plan& plan, ThreadPool& pool,
+                         const VerifyOptions& options = {});
 /// As above, on a pool of its own with a thread for each core.
 Verification verify_plan(const model::Circuit& circuit, const Plan& plan);
 
@@ -108,7 +118,7 @@ Verification verify_plan(const model::Circuit& circuit, const Plan& plan);
 /// and its verification. The parts, and the lines of each part, are searched side by side on
 /// `pool`; the counts do not depend on its size.
 std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit, const Plan& analytic,
-                                            ThreadPool& pool);
+                                            ThreadPool& pool, const VerifyOptions& options = {});
 /// As above, on a pool of its own with a thread for each core.
 std::pair<Plan, Verification> plan_verified(const model::Circuit& circuit,
                                             const Plan& analytic);

@@ -12,6 +12,7 @@ namespace {
 
 constexpr const char* kExactColour = "#1f5fa8";
 constexpr const char* kLadderColour = "#d0641a";
+constexpr const char* kSimulatedColour = "#2e8b3a";
 
 PlotSeries series_of(const plan::NodeTraces& traces, const std::vector<double>& v,
                      std::string label, const char* colour, bool dashed) {
@@ -33,6 +34,10 @@ PlotFile waveform_chart(const plan::NodeTraces& traces) {
   spec.y_label = "voltage (V)";
   spec.series = {series_of(traces, traces.exact, "exact line", kExactColour, false),
                  series_of(traces, traces.ladder, "ladder", kLadderColour, true)};
+  if (!traces.simulated.empty()) {
+    spec.title = fmt::format("node {}: exact line, ladder and the simulator's run", traces.node);
+    spec.series.push_back(series_of(traces, traces.simulated, "simulator", kSimulatedColour, true));
+  }
   return {fmt::format("waveform_{}.svg", emit::sanitize_name(traces.node)), svg_line_chart(spec)};
 }
 

@@ -17,9 +17,9 @@ struct PlotFile {
 };
 
 /// Draws `curves` (plan::measure_plan_curves): for each load node, the exact and the ladder
-/// waveforms over the window; for each line, its measured whole-circuit error against its
-/// section count with the budget and the chosen N marked, and with a verification the line's
-/// share of the budget. Draws only; measures nothing.
+/// waveforms over the window, and the simulator's where the curves have it; for each line, its
+/// measured whole-circuit error against its section count with the budget and the chosen N
+/// marked, and with a verification the line's share of the budget. Draws only; measures nothing.
 std::vector<PlotFile> plan_plots(const model::Circuit& circuit, const plan::Plan& plan,
                                  const plan::PlanCurves& curves,
                                  const plan::Verification* verification = nullptr);

@@ -23,8 +23,10 @@ using syntax::Diagnostics;
 using syntax::Span;
 
 constexpr std::string_view kTopKeys[] = {"defaults", "netlist"};
-constexpr std::string_view kSettingKeys[] = {"rise", "tolerance", "shape", "window"};
-constexpr std::string_view kDefaultsKeys[] = {"rise", "tolerance", "shape", "window", "templates"};
+constexpr std::string_view kSettingKeys[] = {"rise",   "tolerance", "shape",
+                                             "window", "method",    "step"};
+constexpr std::string_view kDefaultsKeys[] = {"rise",   "tolerance", "shape",    "window",
+                                              "method", "step",      "templates"};
 constexpr std::string_view kNetlistKeys[] = {"source",    "output",  "report",    "report_json",
                                              "templates", "library", "with_ideal"};
 
@@ -33,6 +35,8 @@ std::string_view setting_example(std::string_view key) {
   if (key == "rise") return "350ps";
   if (key == "tolerance") return "2%";
   if (key == "shape") return "pi";
+  if (key == "method") return "gear";
+  if (key == "step") return "5ps";
   return "40ns";
 }
 

@@ -73,6 +73,7 @@ struct Arguments {
   bool analytic = false;
   std::string plots;
   std::string check_netlist;
+  SimulateOptions check_simulate;
   EmitOptions emit;
   BuildOptions build;
 };
@@ -83,6 +84,25 @@ constexpr const char* kAnalyticHelp =
     "line";
 constexpr const char* kPlotHelp =
     "Write SVG charts here: waveforms at each load, error against sections";
+
+/// --simulate, --simulator and --simulator-limit on `command`.
+void add_simulate_options(CLI::App* command, SimulateOptions& o) {
+  CLI::Option* simulate = command->add_flag(
+      "--simulate", o.simulate,
+      "Also run the deck in the simulator and measure, at every line end, what it shows against "
+      "the exact line; exit 1 when that is over the budget");
+  command
+      ->add_option("--simulator", o.simulator.program,
+                   "The simulator to run for --simulate: a name on PATH or a path")
+      ->capture_default_str()
+      ->needs(simulate);
+  command
+      ->add_option("--simulator-limit", o.simulator.time_limit,
+                   "Seconds after which the simulator is stopped as hung")
+      ->capture_default_str()
+      ->check(CLI::PositiveNumber)
+      ->needs(simulate);
+}
 
 CLI::App* add_lines(CLI::App& app, Arguments& a) {
   CLI::App* lines = app.add_subcommand("lines", "Print every line's Z0, delay, L', C', R', G'");
@@ -111,6 +131,7 @@ CLI::App* add_check(CLI::App& app, Arguments& a) {
   check->add_flag("--analytic", a.analytic,
                   "Check the analytic planner's counts (those emit --analytic writes)");
   check->add_option("--plot", a.plots, kPlotHelp);
+  add_simulate_options(check, a.check_simulate);
   return check;
 }
 
@@ -133,6 +154,7 @@ CLI::App* add_emit(CLI::App& app, Arguments& a) {
   emit->add_option("--depfile", o.depfile,
                    "Also write a make-syntax depfile: the outputs, made from the description "
                    "and templates");
+  add_simulate_options(emit, o.simulate);
   return emit;
 }
 
@@ -168,7 +190,8 @@ struct Subcommands {
 int dispatch(const Subcommands& s, const Arguments& a) {
   if (s.lines->parsed()) return lines_command(a.path, a.json);
   if (s.plan->parsed()) return plan_command(a.path, {a.json, a.analytic, a.plots});
-  if (s.check->parsed()) return check_command(a.path, a.check_netlist, a.json, a.analytic, a.plots);
+  if (s.check->parsed())
+    return check_command(a.path, a.check_netlist, a.json, a.analytic, a.plots, a.check_simulate);
   if (s.emit->parsed()) return emit_command(a.path, a.emit);
   if (s.build->parsed()) return build_command(a.build);
   RUNGS_UNREACHABLE("no subcommand parsed, though CLI11 requires one");

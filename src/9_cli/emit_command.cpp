@@ -8,10 +8,12 @@
 #include <fmt/ranges.h>
 
 #include "7_report/plan_report.h"
+#include "7_report/simulation_report.h"
 #include "8_project/depfile.h"
 #include "9_cli/errors.h"
 #include "9_cli/netlist_job.h"
 #include "9_cli/output_file.h"
+#include "9_cli/simulation.h"
 #include "9_cli/subcommands.h"
 
 namespace rungs::cli {
@@ -29,6 +31,7 @@ NetlistJob emit_job(const std::string& path, const EmitOptions& options) {
   job.library = options.library;
   job.with_ideal = options.with_ideal;
   job.analytic = options.analytic;
+  job.keep_end_traces = options.simulate.simulate;
   return job;
 }
 
@@ -44,18 +47,6 @@ void write_emit_depfile(const std::string& depfile, const NetlistJob& job,
   const std::string text = project::make_depfile(targets, prerequisites);
   write_atomically(
       depfile, [&](std::ostream& out) { out << text; }, false, true);
-}
-
-/// `path` as one word of a POSIX shell command line: as it is when it holds nothing a shell
-/// reads specially, else in single quotes.
-std::string shell_word(const std::string& path) {
-  const bool plain = !path.empty() && path.find_first_not_of(
-                                          "ABCDEFGHIJKLMNOPQRSTUVWXYZabcdefghijklmnopqrstuvwxyz"
-                                          "0123456789_./+,:=@%-") == std::string::npos;
-  if (plain) return path;
-  std::string quoted = "'";
-  for (char c : path) quoted += c == '\'' ? std::string("'\\''") : std::string(1, c);
-  return quoted + "'";
 }
 
 /// What a person needs after an emit: the files written and how to run the deck. Nothing
@@ -95,7 +86,16 @@ int emit_command(const std::string& path, const EmitOptions& options) {
     print_note(report::plan_summary(netlist.circuit, netlist.plan, verification_of(netlist)));
     for (const std::string& note : written_notes(job, options)) print_note(note);
   }
-  return kExitOk;
+  if (!options.simulate.simulate) return kExitOk;
+  // The deck is written whatever the simulation shows: it is the description's; the
+  // simulation's verdict is the exit code and the lines below.
+  const Simulated simulated = simulate_netlist(job, netlist, options.simulate.simulator);
+  if (!options.quiet)
+    std::cerr << report::simulation_table(netlist.circuit, netlist.plan, simulated.ends,
+                                          options.simulate.simulator.program,
+                                          simulated.run.seconds);
+  for (const std::string& failure : simulated.failures) print_note(failure);
+  return simulated.failures.empty() ? kExitOk : kExitCheckFailed;
 }
 
 }  // namespace rungs::cli

@@ -13,6 +13,7 @@ enum ExitCode : int {
   kExitBadInput = 2,     // the description or the command line is wrong
   kExitFile = 3,         // a file could not be read or written
   kExitInternal = 3,     // an internal error
+  kExitSimulator = 3,    // the simulator could not be run, failed, or passed its time limit
 };
 
 /// An error a user can cause or meet, as it is printed: one line for standard error. Its type
@@ -63,6 +64,15 @@ class ReferenceFailed : public Error {
  public:
   explicit ReferenceFailed(const std::string& message)
       : Error(kExitInternal, "rungs: " + message) {}
+};
+
+/// The simulator (--simulate) could not be started, failed, ran past its time limit, or left
+/// results that cannot be read (exit 3); "rungs: MESSAGE", which says what was run and ends
+/// with the last lines it printed.
+class SimulatorFailed : public Error {
+ public:
+  explicit SimulatorFailed(const std::string& message)
+      : Error(kExitSimulator, "rungs: " + message) {}
 };
 
 /// A check failed (exit 1); "rungs: MESSAGE".

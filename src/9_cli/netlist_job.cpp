@@ -16,6 +16,7 @@
 #include "3_model/resolve.h"
 #include "6_emit/sha256.h"
 #include "7_report/plan_report.h"
+#include "5_plan/simulation_check.h"
 #include "7_report/plots.h"
 #include "9_cli/errors.h"
 #include "9_cli/output_file.h"
@@ -83,9 +84,11 @@ PreparedNetlist resolve_and_plan(const NetlistJob& job, syntax::InputFile file,
 
 /// The verified plan in place of the analytic one; when the exact reference cannot take the
 /// circuit, the analytic plan stands and a warning in `messages` says so.
-void verify_counts(PreparedNetlist& netlist, plan::ThreadPool& pool, std::string& messages) {
+void verify_counts(PreparedNetlist& netlist, plan::ThreadPool& pool, bool keep_end_traces,
+                   std::string& messages) {
   try {
-    auto [verified, verification] = plan::plan_verified(netlist.circuit, netlist.plan, pool);
+    auto [verified, verification] =
+        plan::plan_verified(netlist.circuit, netlist.plan, pool, {keep_end_traces});
     netlist.plan = std::move(verified);
     netlist.verification = std::move(verification);
   } catch (const std::exception& e) {
@@ -120,7 +123,7 @@ PreparedNetlist prepare(const NetlistJob& job, syntax::InputFile file, plan::Thr
   netlist.templates = load_templates(job.templates, netlist.template_files);
   if (std::string problem = emit::check_templates(netlist.templates); !problem.empty())
     throw BadInput(problem);
-  if (!job.analytic) verify_counts(netlist, pool, messages);
+  if (!job.analytic) verify_counts(netlist, pool, job.keep_end_traces, messages);
   fill_closing_voltages(netlist, messages);
   if (!job.report.empty() || !job.report_json.empty())
     netlist.peak = sim::estimate_peak(netlist.circuit, netlist.plan.window);
@@ -178,15 +181,16 @@ PreparedNetlist prepare_for_command(const NetlistJob& job, plan::ThreadPool& poo
   return std::move(*prepared.netlist);
 }
 
-void write_plots(const std::string& folder, const PreparedNetlist& netlist) {
+void write_plots(const std::string& folder, const PreparedNetlist& netlist,
+                 const sim::RawPlot* simulated) {
   std::error_code ec;
   std::filesystem::create_directories(folder, ec);
   if (ec) throw FileError(fmt::format("cannot make the folder '{}': {}", folder, ec.message()));
   std::vector<report::PlotFile> plots;
   try {
-    plots = report::plan_plots(netlist.circuit, netlist.plan,
-                               plan::measure_plan_curves(netlist.circuit, netlist.plan),
-                               verification_of(netlist));
+    plan::PlanCurves curves = plan::measure_plan_curves(netlist.circuit, netlist.plan);
+    if (simulated) plan::add_simulated(curves, *simulated);
+    plots = report::plan_plots(netlist.circuit, netlist.plan, curves, verification_of(netlist));
   } catch (const std::exception& e) {
     throw ReferenceFailed(fmt::format("cannot draw the charts: {}", e.what()));
   }
@@ -195,6 +199,12 @@ void write_plots(const std::string& folder, const PreparedNetlist& netlist) {
     write_atomically(
         path, [&](std::ostream& out) { out << plot.svg; }, /*protect_foreign=*/false, true);
   }
+}
+
+std::string netlist_text(const NetlistJob& job, const PreparedNetlist& netlist) {
+  std::ostringstream text;
+  job_outputs(job, netlist).front().write(text);
+  return text.str();
 }
 
 std::vector<JobOutput> job_outputs(const NetlistJob& job, const PreparedNetlist& netlist) {

@@ -9,6 +9,7 @@
 #include "1_syntax/input_file.h"
 #include "3_model/circuit.h"
 #include "4_sim/peak.h"
+#include "4_sim/raw_file.h"
 #include "5_plan/plan.h"
 #include "5_plan/thread_pool.h"
 #include "5_plan/verify.h"
@@ -31,6 +32,8 @@ struct NetlistJob {
   /// Plan by the analytic estimate only; otherwise (the default) by the verified planner,
   /// every ladder measured against the exact reference.
   bool analytic = false;
+  /// Keep the verification's waveforms at the line ends (plan::VerifyOptions), for --simulate.
+  bool keep_end_traces = false;
   std::vector<project::DefaultSetting> defaults;  // design-wide settings from a manifest
 };
 
@@ -70,9 +73,14 @@ PreparedNetlist prepare_for_command(const NetlistJob& job, plan::ThreadPool& poo
 /// The verification of a prepared netlist, or null when it was planned analytically.
 const plan::Verification* verification_of(const PreparedNetlist& netlist);
 
-/// Writes the plan's charts (7_report/plots.h) as SVG files into `folder`, creating it. Throws
-/// FileError, or ReferenceFailed when a chart's waveforms cannot be computed.
-void write_plots(const std::string& folder, const PreparedNetlist& netlist);
+/// Writes the plan's charts (7_report/plots.h) as SVG files into `folder`, creating it; with
+/// `simulated`, a simulator's run of the deck, its waveforms are drawn beside the exact and the
+/// ladder ones. Throws FileError, or ReferenceFailed when a chart's waveforms cannot be computed.
+void write_plots(const std::string& folder, const PreparedNetlist& netlist,
+                 const sim::RawPlot* simulated = nullptr);
+
+/// The netlist text the job writes (its first output), in memory.
+std::string netlist_text(const NetlistJob& job, const PreparedNetlist& netlist);
 
 /// One file a netlist job produces.
 struct JobOutput {

@@ -2,7 +2,15 @@
 #pragma once
 #include <string>
 
+#include "9_cli/simulator.h"
+
 namespace rungs::cli {
+
+/// `--simulate` and its options, for check and emit.
+struct SimulateOptions {
+  bool simulate = false;  // run the deck in the simulator and measure what it shows
+  SimulatorOptions simulator;
+};
 
 /// `rungs emit FILE` and its options.
 struct EmitOptions {
@@ -16,6 +24,7 @@ struct EmitOptions {
   bool force = false;
   bool quiet = false;
   bool analytic = false;  // plan by the analytic estimate only, unmeasured
+  SimulateOptions simulate;
 };
 
 /// Writes the netlist of `path` (and the reports and depfile asked for); returns the exit code.
@@ -39,8 +48,11 @@ int build_command(const BuildOptions& options);
 /// emit writes (with the same --analytic) is adequate, measured against the exact reference, and,
 /// with a netlist, when it is exactly what emit would write now; else exit 1 with one line of
 /// reason for each failure.
-/// With `plots`, also writes the SVG charts into that folder.
+/// With `plots`, also writes the SVG charts into that folder. With `simulate`, also runs the
+/// deck in the simulator and fails (exit 1) for every line end whose simulated error is over its
+/// budget, with one line naming the part that is over; the charts then draw the simulator's
+/// waveforms too.
 int check_command(const std::string& path, const std::string& netlist, bool json, bool analytic,
-                  const std::string& plots);
+                  const std::string& plots, const SimulateOptions& simulate);
 
 }  // namespace rungs::cli
