@@ -13,6 +13,7 @@
 #include <sstream>
 #include <string>
 #include <thread>
+#include <vector>
 
 #include <fcntl.h>
 #include <signal.h>
@@ -148,6 +149,34 @@ TEST_CASE("a netlist changed at its end, its middle or cut short is rewritten wh
     folder.write("sim/b.cir", damaged);
     REQUIRE(run_in(folder.path, "build --analytic -q").exit_code == 0);
     CHECK(read(folder / "sim/b.cir") == good);
+  }
+}
+
+TEST_CASE("a netlist of megabytes is kept when the same and rewritten whole when not") {
+  // Over 3 MB: the deck reaches the comparison in megabyte writes, each compared as it comes,
+  // so damage in the first, a later or the last of them, or a file cut short, must show.
+  Folder folder;
+  folder.write("lines/a.rungs", description("a, large", 50000));
+  folder.write("rungs.toml", "[[netlist]]\nsource = \"lines/a.rungs\"\noutput = \"sim/a.cir\"\n");
+  REQUIRE(run_in(folder.path, "build --analytic -q").exit_code == 0);
+  const std::string good = read(folder / "sim/a.cir");
+  REQUIRE(good.size() > 3u << 20);
+  fs::last_write_time(folder / "sim/a.cir", kLongAgo);
+  REQUIRE(run_in(folder.path, "build --analytic -q").exit_code == 0);
+  CHECK(fs::last_write_time(folder / "sim/a.cir") == kLongAgo);
+  std::vector<std::string> damaged;
+  for (std::size_t at : {std::size_t{100}, (std::size_t{1} << 20) + 7, good.size() / 2,
+                         good.size() - 2}) {
+    std::string changed = good;
+    changed[at] = changed[at] == '1' ? '2' : '1';
+    damaged.push_back(changed);
+  }
+  damaged.push_back(good.substr(0, good.size() - (1 << 20)));
+  damaged.push_back(good + "* added\n");
+  for (const std::string& file : damaged) {
+    folder.write("sim/a.cir", file);
+    REQUIRE(run_in(folder.path, "build --analytic -q").exit_code == 0);
+    CHECK(read(folder / "sim/a.cir") == good);
   }
 }
 
