@@ -165,15 +165,16 @@ double allowed_error(double budget, double fixed_error, bool left_to_fixed) {
   return left_to_fixed ? std::max(budget, fixed_error + kUsefulShare * budget) : budget;
 }
 
-double usable_budget(const SplitProblem& p, std::size_t end) {
-  return p.budget[end] - peak(p.fixed[end]) - p.estimate;
+bool leaves_too_little(double budget, double fixed_error, double estimate) {
+  return budget - fixed_error - estimate < kUsefulShare * budget;
 }
 
 SplitResult split_budget(const SplitProblem& p) {
   SplitResult r;
-  r.left_to_fixed.assign(p.budget.size(), false);
-  for (std::size_t e = 0; e < p.budget.size(); ++e)
-    r.left_to_fixed[e] = usable_budget(p, e) < kUsefulShare * p.budget[e];
+  r.left_to_fixed = p.left_to_fixed;
+  if (r.left_to_fixed.empty())
+    for (std::size_t e = 0; e < p.budget.size(); ++e)
+      r.left_to_fixed.push_back(leaves_too_little(p.budget[e], peak(p.fixed[e]), p.estimate));
   r.sections = p.start;
   r.met = raise_by_marginal_cost(p, r.left_to_fixed, r.sections);
   if (r.met && p.accept) r.met = p.accept(r.sections);

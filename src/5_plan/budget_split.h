@@ -31,6 +31,9 @@ struct SplitProblem {
   std::vector<bool> firm;
   int max_sections = 1;
   /// Elements of line k's ladder at N sections.
+  /// Per end, whether it is left to the fixed ladders; empty: decided by leaves_too_little
+  /// from `fixed` and `estimate`.
+  std::vector<bool> left_to_fixed;
   std::function<long long(std::size_t k, int n)> elements;
   /// Line k's own difference at N sections; the caller measures and keeps it.
   std::function<const EndWaves&(std::size_t k, int n)> own;
@@ -64,8 +67,9 @@ void lower_each(const std::vector<int>& floor,
                 const std::function<bool(const std::vector<int>&)>& passes,
                 std::vector<int>& counts);
 
-/// The budget each end has for the adjustable lines' own errors.
-double usable_budget(const SplitProblem& p, std::size_t end);
+/// Whether the fixed ladders, with `fixed_error` at an end and the measure's `estimate`, leave
+/// under kUsefulShare of its `budget`: the end is then left to them.
+bool leaves_too_little(double budget, double fixed_error, double estimate);
 
 /// Chooses the counts by marginal cost: from the start counts, while an end is over its
 /// budget, the line whose next count (a quarter more) removes the most excess error per added

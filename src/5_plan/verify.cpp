@@ -66,6 +66,12 @@ void for_each_item(ThreadPool& pool, const std::vector<std::size_t>& items, F&& 
   });
 }
 
+/// The plan's ladders for every line, as frequency_response takes them.
+std::vector<std::optional<LadderSpec>> every_ladder(const Plan& plan) {
+  const std::vector<LadderSpec> specs = ladder_specs(plan);
+  return {specs.begin(), specs.end()};
+}
+
 bool meets(double error, double error_estimate, double tolerance) {
   return error + error_estimate <= tolerance;
 }
@@ -104,10 +110,9 @@ EndSet end_set(const model::Circuit& circuit, const Plan& plan, const sim::Respo
 /// cut and the rest exact, and the figures' error estimate (as
 /// sim::measure_ladder_error computes both, which takes every line as a ladder).
 struct PartialErrors {
-  std::vector<double> end_errors;   // per end of the EndSet
-  EndWaves diff;                    // per end: the difference waveform (see EndWaves)
-  std::vector<double> line_errors;  // per line: the larger of its two ends
-  double error = 0.0;               // the largest of all
+  std::vector<double> end_errors;  // per end of the EndSet: the peak of its difference
+  EndWaves diff;                   // per end: the difference waveform (see EndWaves)
+  double error = 0.0;              // the largest of all
   double error_estimate = 0.0;
 };
 
@@ -127,8 +132,6 @@ PartialErrors measure_partial(const model::Circuit& circuit, const sim::Response
       if (!(std::abs(swing) > 0.0)) continue;
       for (std::size_t j = 0; j < exact.t.size(); ++j)
         m.diff[e].push_back((lad.v[c][i][j] - exact.v[c][i][j]) / swing);
-      m.end_errors[e] = std::max(
-          m.end_errors[e], sim::compare_waveforms(exact.t, exact.v[c][i], lad.v[c][i], swing).error);
       double trunc = 0.0;
       for (std::size_t j = 0; j < exact.coarse[c][i].size(); ++j) {
         const double fine = lad.v[c][i][2 * j] - exact.v[c][i][2 * j];
@@ -138,11 +141,10 @@ PartialErrors measure_partial(const model::Circuit& circuit, const sim::Response
       trunc_worst = std::max(trunc_worst, trunc / std::abs(swing));
     }
   }
-  for (std::size_t k = 0; k < circuit.lines.size(); ++k) {
-    double e = 0.0;
-    for (const std::size_t end : ends.of_line[k]) e = std::max(e, m.end_errors[end]);
-    m.line_errors.push_back(e);
-    m.error = std::max(m.error, e);
+  // The error is the difference's peak, as sim::compare_waveforms measures it.
+  for (std::size_t e = 0; e < ends.node.size(); ++e) {
+    m.end_errors[e] = peak(m.diff[e]);
+    m.error = std::max(m.error, m.end_errors[e]);
   }
   m.error_estimate = trunc_worst + exact.error_estimate.aliasing + lad.error_estimate.aliasing;
   return m;
@@ -183,8 +185,8 @@ Verification verify_against(const model::Circuit& circuit, const Plan& plan,
 
 /// The reference the candidate ladders are searched against: the exact response on the fewest
 /// of the exact grid's frequencies (an eighth, a quarter or a half of them) on which the plan's
-/// ladders measure with an error estimate under a tenth of the smallest tolerance, else the
-/// exact response itself. The exact grid is sized for the corners of the waveforms themselves;
+/// ladders measure with an error estimate under a tenth of the smallest tolerance; none when
+/// no such grid is found. The exact grid is sized for the corners of the waveforms themselves;
 /// the difference between a ladder's waveform and the exact one needs less band. Every
 /// measurement's own estimate stands beside its error, so the coarser grid's counts are a
 /// little higher: settle_on_full_grid lowers them on the full grid, where the report's
@@ -195,8 +197,7 @@ std::optional<sim::Response> candidate_reference(const model::Circuit& circuit, 
                                                  sim::ResponseWorkspace& ws) {
   double tolerance = std::numeric_limits<double>::infinity();
   for (const LinePlan& lp : plan.lines) tolerance = std::min(tolerance, lp.tolerance);
-  const std::vector<LadderSpec> specs = ladder_specs(plan);
-  const std::vector<std::optional<LadderSpec>> ladders(specs.begin(), specs.end());
+  const std::vector<std::optional<LadderSpec>> ladders = every_ladder(plan);
   for (const std::size_t fraction : {8, 4, 2}) {
     sim::LaplaceGrid grid = exact.grid;
     grid.frequencies = sim::fft_friendly(exact.grid.frequencies / fraction);
@@ -315,8 +316,7 @@ void closing_voltages_on(const model::Circuit& circuit, Plan& plan,
   plan.closing_voltage.assign(circuit.loads.size(), 0.0);
   if (std::none_of(plan.closing.begin(), plan.closing.end(), [](double c) { return c > 0.0; }))
     return;
-  const std::vector<LadderSpec> specs = ladder_specs(plan);
-  const std::vector<std::optional<LadderSpec>> ladders(specs.begin(), specs.end());
+  const std::vector<std::optional<LadderSpec>> ladders = every_ladder(plan);
   const sim::Response r =
       sim::frequency_response(circuit, ladders, grid, reference_options(plan), &ws);
   for (std::size_t i = 0; i < r.switch_voltages.size(); ++i)
@@ -336,19 +336,17 @@ PartialErrors fixed_errors(PartMeasures& pm, sim::ResponseWorkspace& ws) {
   // No fixed ladder: a zero difference of the measured waveforms' size.
   PartialErrors none;
   none.end_errors.assign(pm.ends.node.size(), 0.0);
-  none.line_errors.assign(fixed.size(), 0.0);
   std::size_t sources = 0;
   for (const sim::Excitation& x : pm.exact.excitations) sources += std::abs(x.swing) > 0.0;
   none.diff.assign(pm.ends.node.size(), std::vector<double>(sources * pm.exact.t.size(), 0.0));
   return none;
 }
 
-/// The ends whose budget the fixed ladders leave too little of (kUsefulShare).
+/// The ends whose budget the fixed ladders leave too little of (leaves_too_little).
 std::vector<bool> left_to_fixed(const EndSet& ends, const PartialErrors& fixed) {
   std::vector<bool> left(ends.node.size(), false);
   for (std::size_t e = 0; e < left.size(); ++e)
-    left[e] = ends.budget[e] - fixed.end_errors[e] - fixed.error_estimate <
-              kUsefulShare * ends.budget[e];
+    left[e] = leaves_too_little(ends.budget[e], fixed.end_errors[e], fixed.error_estimate);
   return left;
 }
 
@@ -546,6 +544,7 @@ bool split_counts(PartMeasures& pm, Plan& plan, const PartialErrors& fixed,
   for (const auto& counts : pm.seen)
     for (const auto& [count, m] : counts) p.estimate = std::max(p.estimate, m.error_estimate);
   p.adjustable = adjustable;
+  p.left_to_fixed = left;
   for (const std::size_t k : adjustable) {
     p.start.push_back(plan.lines[k].sections);
     p.firm.push_back(std::any_of(pm.ends.of_line[k].begin(), pm.ends.of_line[k].end(),
