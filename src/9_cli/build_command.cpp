@@ -79,6 +79,9 @@ NetlistJob job_of(const project::Manifest& manifest, const project::NetlistEntry
   job.output = from_manifest(folder, entry.output);
   if (!entry.report.empty()) job.report = from_manifest(folder, entry.report);
   if (!entry.report_json.empty()) job.report_json = from_manifest(folder, entry.report_json);
+  job.output_named_by = fmt::format("the manifest's output for {}", entry.source);
+  job.report_named_by = fmt::format("the manifest's report for {}", entry.source);
+  job.report_json_named_by = fmt::format("the manifest's report_json for {}", entry.source);
   const std::string templates = project::templates_of(manifest, entry);
   if (!templates.empty()) job.templates = from_manifest(folder, templates);
   job.library = entry.library;
@@ -128,7 +131,7 @@ struct Task {
 
 std::string stale_reason(const Task& task) {
   if (!task.compared.exists) return "missing";
-  if (task.output.is_netlist)
+  if (task.output.kind == OutputKind::netlist)
     return project::netlist_stale_reason(task.compared.existing_head, task.compared.expected_head);
   return "differs from what rungs writes now";
 }
@@ -144,7 +147,7 @@ bool write_output(const JobOutput& output) {
       throw FileError(
           fmt::format("cannot make the folder '{}': {}", folder.string(), ec.message()));
   }
-  return write_if_changed(output.path, output.write, false, true);
+  return write_if_changed(output.path, output.write, output.kind, /*force=*/true);
 }
 
 /// Writes the depfile of a build, if it changes: every output, made from the manifest, the
@@ -162,7 +165,7 @@ void write_build_depfile(const std::string& depfile, const LoadedManifest& manif
     throw FileError(problem);
   const std::string text = project::make_depfile(targets, prerequisites);
   write_if_changed(
-      depfile, [&](std::ostream& out) { out << text; }, false, true);
+      depfile, [&](std::ostream& out) { out << text; }, OutputKind::depfile, /*force=*/true);
 }
 
 /// Reads and plans every description, `jobs` at once on `pool`; prints their messages and
@@ -208,11 +211,13 @@ std::vector<Task> tasks_of(const LoadedManifest& manifest,
 
 /// Reports each netlist to be written that would replace a foreign file; returns the exit
 /// code of that (kExitOk when there is none).
-int refuse_foreign_outputs(const std::vector<Task>& tasks) {
+int refuse_foreign_outputs(const std::vector<Task>& tasks, const BuildOptions& options) {
   int exit_code = kExitOk;
   for (const Task& task : tasks)
-    if (task.output.is_netlist && is_foreign_file(task.output.path))
+    if (is_foreign_file(task.output.path, task.output.kind))
       exit_code = std::max(exit_code, report(RefusedOverwrite(task.output.path)));
+  if (!options.depfile.empty() && is_foreign_file(options.depfile, OutputKind::depfile))
+    exit_code = std::max(exit_code, report(RefusedOverwrite(options.depfile)));
   return exit_code;
 }
 
@@ -252,7 +257,7 @@ std::size_t print_outcomes(const std::vector<Task>& tasks, const std::vector<Pre
       ++count;
     } else if (!options.check && task.changed) {
       const PreparedNetlist& netlist = *prepared[task.job].netlist;
-      if (!options.quiet && task.output.is_netlist)
+      if (!options.quiet && task.output.kind == OutputKind::netlist)
         print_note(fmt::format(
             "wrote {}: {}", task.output.path,
             report::plan_summary(netlist.circuit, netlist.plan, verification_of(netlist))));
@@ -275,6 +280,27 @@ int check_outcome(std::size_t stale, std::size_t total, bool quiet) {
   }
   if (!quiet) print_note(fmt::format("all {} output{} up to date", total, outputs_are));
   return kExitOk;
+}
+
+/// What a build reads that it must never write: the manifest and every description.
+std::vector<NamedOutput> build_inputs(const LoadedManifest& manifest) {
+  std::vector<NamedOutput> inputs = {{manifest.path, "the manifest"}};
+  for (const NetlistJob& job : manifest.jobs)
+    inputs.push_back({job.source, fmt::format("the description {}", job.header_name)});
+  return inputs;
+}
+
+/// Every file a build writes, and what named it.
+std::vector<NamedOutput> build_outputs(const LoadedManifest& manifest,
+                                       const BuildOptions& options) {
+  std::vector<NamedOutput> outputs;
+  for (const NetlistJob& job : manifest.jobs) {
+    outputs.push_back({job.output, job.output_named_by});
+    if (!job.report.empty()) outputs.push_back({job.report, job.report_named_by});
+    if (!job.report_json.empty()) outputs.push_back({job.report_json, job.report_json_named_by});
+  }
+  if (!options.depfile.empty()) outputs.push_back({options.depfile, "--depfile"});
+  return outputs;
 }
 
 /// Writes, or with --check compares, every output, and tells what became of each; returns
@@ -308,12 +334,13 @@ int build_command(const BuildOptions& options) {
 
   // Every description is read and planned, and every netlist's place checked, before
   // anything is written, so that one bad description leaves every output as it was.
+  refuse_clashing_outputs(build_inputs(manifest), build_outputs(manifest, options));
   std::vector<Preparation> prepared;
   int exit_code = prepare_all(manifest, pool, jobs, prepared);
   std::vector<Task> tasks;
   if (exit_code == kExitOk) {
     tasks = tasks_of(manifest, prepared);
-    if (!options.check && !options.force) exit_code = refuse_foreign_outputs(tasks);
+    if (!options.check && !options.force) exit_code = refuse_foreign_outputs(tasks, options);
   }
   if (exit_code != kExitOk) {
     print_note("nothing written");

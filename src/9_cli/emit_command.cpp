@@ -38,7 +38,7 @@ NetlistJob emit_job(const std::string& path, const EmitOptions& options) {
 /// Writes the depfile of one emit: every file written, made from the description and
 /// templates. Throws FileError when a path cannot be written in make syntax.
 void write_emit_depfile(const std::string& depfile, const NetlistJob& job,
-                        const PreparedNetlist& netlist) {
+                        const PreparedNetlist& netlist, bool force) {
   std::vector<std::string> targets;
   for (const JobOutput& output : job_outputs(job, netlist)) targets.push_back(output.path);
   const std::vector<std::string> prerequisites = job_prerequisites(job, netlist);
@@ -46,7 +46,7 @@ void write_emit_depfile(const std::string& depfile, const NetlistJob& job,
     throw FileError(problem);
   const std::string text = project::make_depfile(targets, prerequisites);
   write_atomically(
-      depfile, [&](std::ostream& out) { out << text; }, false, true);
+      depfile, [&](std::ostream& out) { out << text; }, OutputKind::depfile, force);
 }
 
 /// What a person needs after an emit: the files written and how to run the deck. Nothing
@@ -77,11 +77,25 @@ int emit_command(const std::string& path, const EmitOptions& options) {
         "--depfile needs a description file and -o FILE: a build tool cannot track standard "
         "input or output");
   const NetlistJob job = emit_job(path, options);
+  std::vector<NamedOutput> outputs = {{job.output, job.output_named_by}};
+  if (!job.report.empty()) outputs.push_back({job.report, job.report_named_by});
+  if (!job.report_json.empty()) outputs.push_back({job.report_json, job.report_json_named_by});
+  if (!options.depfile.empty()) outputs.push_back({options.depfile, "--depfile"});
+  refuse_clashing_outputs({{path, "the description"}}, outputs);
   plan::ThreadPool pool(plan::ThreadPool::core_count());
   const PreparedNetlist netlist = prepare_for_command(job, pool);
-  for (const JobOutput& output : job_outputs(job, netlist))
-    write_atomically(output.path, output.write, output.is_netlist, options.force);
-  if (!options.depfile.empty()) write_emit_depfile(options.depfile, job, netlist);
+  const std::vector<JobOutput> files = job_outputs(job, netlist);
+  // Every refusal before the first write, so that a refused report leaves the deck as it was.
+  if (!options.force) {
+    for (const JobOutput& output : files)
+      if (output.path != "-" && is_foreign_file(output.path, output.kind))
+        throw RefusedOverwrite(output.path);
+    if (!options.depfile.empty() && is_foreign_file(options.depfile, OutputKind::depfile))
+      throw RefusedOverwrite(options.depfile);
+  }
+  for (const JobOutput& output : files)
+    write_atomically(output.path, output.write, output.kind, options.force);
+  if (!options.depfile.empty()) write_emit_depfile(options.depfile, job, netlist, options.force);
   if (!options.quiet) {
     print_note(report::plan_summary(netlist.circuit, netlist.plan, verification_of(netlist)));
     for (const std::string& note : written_notes(job, options)) print_note(note);

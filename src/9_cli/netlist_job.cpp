@@ -194,10 +194,18 @@ void write_plots(const std::string& folder, const PreparedNetlist& netlist,
   } catch (const std::exception& e) {
     throw ReferenceFailed(fmt::format("cannot draw the charts: {}", e.what()));
   }
+  // A chart would replace a file someone else wrote: refuse before any chart is written.
+  for (const report::PlotFile& plot : plots) {
+    const std::string path = (std::filesystem::path(folder) / plot.name).string();
+    if (is_foreign_file(path, OutputKind::chart))
+      throw FileError(fmt::format("'{}' exists and is not a chart rungs drew; not overwriting it "
+                                  "(move it, or give --plot another folder)",
+                                  path));
+  }
   for (const report::PlotFile& plot : plots) {
     const std::string path = (std::filesystem::path(folder) / plot.name).string();
     write_atomically(
-        path, [&](std::ostream& out) { out << plot.svg; }, /*protect_foreign=*/false, true);
+        path, [&](std::ostream& out) { out << plot.svg; }, OutputKind::chart, false);
   }
 }
 
@@ -212,20 +220,21 @@ std::vector<JobOutput> job_outputs(const NetlistJob& job, const PreparedNetlist&
   // The header and the report name the source as the job says, so that a build's outputs
   // do not depend on the folder it was started from.
   const std::string& name = job.header_name.empty() ? netlist.file.name : job.header_name;
-  outputs.push_back({job.output, true, [&job, &netlist, name](std::ostream& out) {
+  outputs.push_back({job.output, OutputKind::netlist, job.output_named_by, [&job, &netlist, name](std::ostream& out) {
                        const emit::NetlistOrigin source{name, emit::sha256_hex(netlist.file.text)};
                        const emit::NetlistOptions options{job.library, job.with_ideal};
                        emit::write_netlist(out, netlist.circuit, netlist.plan, source,
                                         netlist.templates, options);
                      }});
   if (!job.report.empty()) {
-    outputs.push_back({job.report, false, [&netlist, name](std::ostream& out) {
+    outputs.push_back({job.report, OutputKind::report, job.report_named_by, [&netlist, name](std::ostream& out) {
                          out << report::plan_text(netlist.circuit, netlist.plan, *netlist.peak,
                                                   name, verification_of(netlist));
                        }});
   }
   if (!job.report_json.empty()) {
-    outputs.push_back({job.report_json, false, [&netlist](std::ostream& out) {
+    outputs.push_back({job.report_json, OutputKind::report_json, job.report_json_named_by,
+                       [&netlist](std::ostream& out) {
                          out << report::plan_json(netlist.circuit, netlist.plan, *netlist.peak,
                                                   verification_of(netlist));
                        }});

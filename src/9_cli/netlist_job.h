@@ -16,6 +16,7 @@
 #include "6_emit/netlist.h"
 #include "8_project/manifest.h"
 #include "9_cli/errors.h"
+#include "9_cli/output_file.h"
 
 namespace rungs::cli {
 
@@ -35,6 +36,10 @@ struct NetlistJob {
   /// Keep the verification's waveforms at the line ends (plan::VerifyOptions), for --simulate.
   bool keep_end_traces = false;
   std::vector<project::DefaultSetting> defaults;  // design-wide settings from a manifest
+  // What named each output, for the messages of refuse_clashing_outputs.
+  std::string output_named_by = "-o";
+  std::string report_named_by = "--report";
+  std::string report_json_named_by = "--report-json";
 };
 
 /// A description read, resolved and planned, with everything its outputs need.
@@ -85,7 +90,8 @@ std::string netlist_text(const NetlistJob& job, const PreparedNetlist& netlist);
 /// One file a netlist job produces.
 struct JobOutput {
   std::string path;
-  bool is_netlist = false;  // a deck (protected from overwriting a foreign file)
+  OutputKind kind = OutputKind::netlist;
+  std::string named_by;  // the option or manifest key that named it, for messages
   std::function<void(std::ostream&)> write;
 };
 

@@ -178,8 +178,57 @@ bool sync_file(const fs::path& path) {
   return ok;
 }
 
-void refuse_foreign(const std::string& path, bool protect_foreign, bool force) {
-  if (protect_foreign && !force && is_foreign_file(path)) throw RefusedOverwrite(path);
+void refuse_foreign(const std::string& path, OutputKind kind, bool force) {
+  if (!force && is_foreign_file(path, kind)) throw RefusedOverwrite(path);
+}
+
+/// The first `count` lines of `path` (fewer when it has fewer), without line breaks, reading
+/// at most `limit` bytes.
+std::vector<std::string> first_lines(const std::string& path, std::size_t count,
+                                     std::size_t limit) {
+  std::ifstream in(path, std::ios::binary);
+  std::vector<std::string> lines;
+  std::string text(limit, '\0');
+  in.read(text.data(), static_cast<std::streamsize>(limit));
+  text.resize(static_cast<std::size_t>(in.gcount()));
+  std::size_t start = 0;
+  while (lines.size() < count && start < text.size()) {
+    std::size_t end = text.find('\n', start);
+    if (end == std::string::npos) end = text.size();
+    std::string line = text.substr(start, end - start);
+    if (!line.empty() && line.back() == '\r') line.pop_back();
+    lines.push_back(std::move(line));
+    start = end + 1;
+  }
+  return lines;
+}
+
+bool starts_with(std::string_view text, std::string_view prefix) {
+  return text.substr(0, prefix.size()) == prefix;
+}
+bool ends_with(std::string_view text, std::string_view suffix) {
+  return text.size() >= suffix.size() && text.substr(text.size() - suffix.size()) == suffix;
+}
+
+/// A depfile as project::make_depfile writes it: rule lines ("TARGETS: \\", "PATH:"),
+/// indented prerequisites, blank lines; a makefile's recipes (a tab) or assignments are not.
+bool is_depfile_text(const std::vector<std::string>& lines) {
+  for (const std::string& line : lines) {
+    if (line.empty()) continue;
+    if (line.front() == '\t') return false;
+    if (starts_with(line, "  ")) continue;
+    if (!ends_with(line, ":") && !ends_with(line, ": \\") && !ends_with(line, " \\")) return false;
+  }
+  return !lines.empty();
+}
+
+/// The file a path names after following links, as a key to compare outputs by; "-" stays.
+std::string identity_of(const std::string& path) {
+  if (path == "-") return path;
+  std::error_code ec;
+  fs::path resolved = fs::weakly_canonical(fs::absolute(path, ec), ec);
+  if (ec) resolved = fs::absolute(path, ec).lexically_normal();
+  return resolved.string();
 }
 
 /// Writes `path` through a temporary file beside it; with `keep_if_same`, an existing file
@@ -225,6 +274,10 @@ bool write_through_temporary(const std::string& path, const ContentWriter& write
     fs::remove(temporary, ec);
     throw FileError(fmt::format("cannot write '{}': {}", path, reason));
   }
+  // The new file keeps the permissions of the one it replaces (an executable script, a
+  // file kept private).
+  if (const fs::file_status old = fs::status(target, ec); !ec && fs::exists(old))
+    fs::permissions(temporary, old.permissions(), ec);
   fs::rename(temporary, target, ec);
   if (ec) {
     const std::string reason = ec.message();
@@ -245,20 +298,73 @@ std::string read_first_line(const std::string& path) {
   return line;
 }
 
-bool is_foreign_file(const std::string& path) {
-  std::error_code ec;
-  if (!fs::exists(path, ec) || fs::is_empty(path, ec)) return false;
-  return !emit::is_deck_marker(read_first_line(path));
+bool written_by_rungs(const std::string& path, OutputKind kind) {
+  switch (kind) {
+    case OutputKind::netlist:
+      return emit::is_deck_marker(read_first_line(path));
+    case OutputKind::report: {
+      // report::plan_text's first line: "design NAME (SOURCE): N lines, tolerance ..."
+      const std::string line = read_first_line(path);
+      return starts_with(line, "design ") && line.find("): ") != std::string::npos &&
+             line.find(", tolerance ") != std::string::npos;
+    }
+    case OutputKind::report_json: {
+      const std::vector<std::string> lines = first_lines(path, 2, 4096);
+      return lines.size() == 2 && lines[0] == "{" && starts_with(lines[1], "  \"version\": ");
+    }
+    case OutputKind::depfile:
+      return is_depfile_text(first_lines(path, 100000, 1 << 20));
+    case OutputKind::chart: {
+      // report::svg_plot's first two lines.
+      const std::vector<std::string> lines = first_lines(path, 2, 4096);
+      return lines.size() == 2 && starts_with(lines[0], "<svg xmlns=\"http://www.w3.org/2000/svg\"") &&
+             lines[1] == "<rect width=\"100%\" height=\"100%\" fill=\"white\"/>";
+    }
+  }
+  return false;
 }
 
-void write_atomically(const std::string& path, const ContentWriter& write, bool protect_foreign,
+bool is_foreign_file(const std::string& path, OutputKind kind) {
+  std::error_code ec;
+  if (!fs::exists(path, ec) || !fs::is_regular_file(path, ec) || fs::is_empty(path, ec))
+    return false;
+  return !written_by_rungs(path, kind);
+}
+
+void refuse_clashing_outputs(const std::vector<NamedOutput>& inputs,
+                             const std::vector<NamedOutput>& outputs) {
+  std::vector<std::pair<std::string, const NamedOutput*>> seen;
+  for (const NamedOutput& input : inputs)
+    if (input.path != "-") seen.emplace_back(identity_of(input.path), &input);
+  const std::size_t input_count = seen.size();
+  for (const NamedOutput& output : outputs) {
+    const std::string key = identity_of(output.path);
+    for (std::size_t i = 0; i < seen.size(); ++i) {
+      if (seen[i].first != key) continue;
+      const NamedOutput& other = *seen[i].second;
+      if (i < input_count)
+        throw BadInput(fmt::format("{} names '{}', which is {}: rungs never writes over what it "
+                                   "reads; name another file",
+                                   output.named_by, output.path, other.named_by));
+      if (key == "-")
+        throw BadInput(fmt::format("{} and {} both name standard output ('-'), which would mix "
+                                   "the two; send one of them to a file",
+                                   other.named_by, output.named_by));
+      throw BadInput(fmt::format("{} and {} both name '{}'; give each output its own file",
+                                 other.named_by, output.named_by, output.path));
+    }
+    seen.emplace_back(key, &output);
+  }
+}
+
+void write_atomically(const std::string& path, const ContentWriter& write, OutputKind kind,
                       bool force) {
   if (path == "-") {
     write(std::cout);
     finish_standard_output();
     return;
   }
-  refuse_foreign(path, protect_foreign, force);
+  refuse_foreign(path, kind, force);
   write_through_temporary(path, write, /*keep_if_same=*/false);
 }
 
@@ -267,9 +373,9 @@ void finish_standard_output() {
   if (!std::cout) throw FileError("cannot write to standard output");
 }
 
-bool write_if_changed(const std::string& path, const ContentWriter& write, bool protect_foreign,
+bool write_if_changed(const std::string& path, const ContentWriter& write, OutputKind kind,
                       bool force) {
-  refuse_foreign(path, protect_foreign, force);
+  refuse_foreign(path, kind, force);
   return write_through_temporary(path, write, /*keep_if_same=*/true);
 }
 

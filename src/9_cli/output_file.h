@@ -3,25 +3,43 @@
 #include <functional>
 #include <ostream>
 #include <string>
+#include <vector>
 
 namespace rungs::cli {
 
 /// Produces a file's content into a stream.
 using ContentWriter = std::function<void(std::ostream&)>;
 
+/// What a file rungs writes holds; each kind is recognised by its first lines
+/// (written_by_rungs), so that rungs replaces its own files and no one else's.
+enum class OutputKind { netlist, report, report_json, depfile, chart };
+
+/// A file a command is about to write, and the option or setting that named it (for messages).
+struct NamedOutput {
+  std::string path;
+  std::string named_by;  // "-o", "--report", "the manifest's report", ...
+};
+
+/// Refuses (BadInput) a command whose outputs name one of its `inputs` (the description, the
+/// manifest), or name the same file twice (by path, through links, or "-" for standard output
+/// twice). Nothing has been written when it throws.
+void refuse_clashing_outputs(const std::vector<NamedOutput>& inputs,
+                             const std::vector<NamedOutput>& outputs);
+
 /// Writes `path` by calling `write` on a temporary file beside it (`.NAME.rungs-PID.tmp`),
 /// flushing it to disk and renaming it over `path`, so a reader, or a build killed at any
 /// moment, sees the old file or the new one, never half of one. "-" writes to standard
-/// output. When `protect_foreign` is set, a foreign file (is_foreign_file) is left alone
-/// unless `force`: throws RefusedOverwrite. Throws FileError when the file cannot be written.
-void write_atomically(const std::string& path, const ContentWriter& write, bool protect_foreign,
+/// output. A foreign file (is_foreign_file) is left alone unless `force`: throws
+/// RefusedOverwrite. The replaced file's permissions are kept. Throws FileError when the file
+/// cannot be written.
+void write_atomically(const std::string& path, const ContentWriter& write, OutputKind kind,
                       bool force);
 
 /// As write_atomically, but when the file already holds exactly the bytes `write` produces,
 /// it is left alone, timestamp included, and the temporary file is removed. The content is
 /// compared while it is produced, so a large file is never held in memory. Returns whether the
 /// file was replaced (or created).
-bool write_if_changed(const std::string& path, const ContentWriter& write, bool protect_foreign,
+bool write_if_changed(const std::string& path, const ContentWriter& write, OutputKind kind,
                       bool force);
 
 /// Flushes standard output; throws FileError when what was written to it could not be.
@@ -42,8 +60,13 @@ Comparison compare_with_file(const std::string& path, const ContentWriter& write
 /// The first line of `path`, without its line break; empty when it cannot be read.
 std::string read_first_line(const std::string& path);
 
-/// True when `path` exists, is not empty, and does not start with a rungs deck marker: a
-/// file that rungs must not overwrite without --force. (An empty file holds nothing to keep.)
-bool is_foreign_file(const std::string& path);
+/// True when the first lines of `path` are the way rungs begins a file of `kind`: a deck's
+/// marker comment; a report's "design NAME (SOURCE): ..." line; a JSON report's "{" then its
+/// "version" key; a depfile's make rules and nothing else; a chart's <svg> and white <rect>.
+bool written_by_rungs(const std::string& path, OutputKind kind);
+
+/// True when `path` exists, is not empty, and was not written_by_rungs as `kind`: a file that
+/// rungs must not overwrite without --force. (An empty file holds nothing to keep.)
+bool is_foreign_file(const std::string& path, OutputKind kind);
 
 }  // namespace rungs::cli
