@@ -258,6 +258,12 @@ std::variant<double, UnitError> read_quantity(std::string_view token, Dimension 
       return UnitError{fmt::format("expected a whole number, found '{}'", token)};
     if (expected == Dimension::count && std::abs(value) > 1e9)
       return UnitError{fmt::format("'{}' is too large", token)};
+    if (expected != Dimension::count && value != 0.0 &&
+        !(std::abs(value) >= kSmallestValue && std::abs(value) <= kLargestValue))
+      return UnitError{fmt::format(
+          "'{}' is {:g} in SI units, outside what a simulator takes: a value is 0 or between "
+          "{:g} and {:g} in size",
+          token, value, kSmallestValue, kLargestValue)};
     return value;
   }
   if (expected == Dimension::count)

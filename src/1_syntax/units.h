@@ -37,10 +37,17 @@ struct UnitError {
   std::string message;
 };
 
+/// The sizes a non-zero value may have once its unit is applied, in SI units: beyond them a
+/// derived figure (a section's L or C, a window, a time step) overflows or underflows a
+/// double or a simulator's arithmetic. Checked by read_quantity.
+inline constexpr double kSmallestValue = 1e-30;
+inline constexpr double kLargestValue = 1e30;
+
 /// Reads `token` (as written, e.g. "42mm") as a value of `expected`. Prefixes are
 /// case-sensitive (m milli, M mega); a bare number where a unit is needed, a prefix with no
 /// unit ("1M", "10k") and the simulator suffix "meg" are errors that say what to write.
-/// Numbers are read without regard to the locale.
+/// Numbers are read without regard to the locale; a value outside kSmallestValue..kLargestValue
+/// in size (other than 0) is an error.
 std::variant<double, UnitError> read_quantity(std::string_view token, Dimension expected);
 
 /// Reads `token` as any one of `allowed` (a load element may be ohms, farads or henries).

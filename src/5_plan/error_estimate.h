@@ -46,5 +46,8 @@ int rule_of_thumb_sections(double delay, double rise);
 
 /// No line is cut into more sections than this.
 inline constexpr int kMaxSections = 10'000'000;
+/// The most ladder elements a deck may hold: about 4 GB of netlist, beyond what a simulator
+/// could load and run.
+inline constexpr long long kMaxDeckElements = 50'000'000;
 
 }  // namespace rungs::plan

@@ -13,6 +13,7 @@
 #include "3_model/connected_parts.h"
 #include "3_model/edges.h"
 #include "3_model/load_network.h"
+#include "1_syntax/units.h"
 #include "5_plan/error_estimate.h"
 
 namespace rungs::plan {
@@ -185,6 +186,72 @@ double deck_time_step(const model::Circuit& circuit, const Plan& plan) {
   return std::isfinite(step) ? step : plan.window / 1000.0;
 }
 
+namespace {
+
+/// Every figure the deck will carry, checked before anything is written: a section's L, C, R
+/// and G, the count, the deck's size, the window and the time step. Each error points at the
+/// line (or the file) whose values gave the figure.
+void check_deck_figures(const Circuit& circuit, const Plan& plan, syntax::Diagnostics& diagnostics) {
+  auto in_range = [](double v) {
+    return std::abs(v) >= syntax::kSmallestValue && std::abs(v) <= syntax::kLargestValue;
+  };
+  for (std::size_t i = 0; i < plan.lines.size(); ++i) {
+    const Line& line = circuit.lines[i];
+    const LinePlan& lp = plan.lines[i];
+    const struct {
+      const char* what;
+      double value;
+      const char* unit;
+      bool may_be_zero;
+    } figures[] = {{"inductance", lp.section_l, "H", false},
+                   {"capacitance", lp.section_c, "F", false},
+                   {"resistance", lp.section_r, "ohm", true},
+                   {"conductance", lp.section_g, "S", true}};
+    for (const auto& f : figures) {
+      if (f.may_be_zero && f.value == 0.0) continue;
+      if (!in_range(f.value))
+        diagnostics.error(line.span,
+                          fmt::format("a section of line {} would have a {} of {:g} {}, outside "
+                                      "what a simulator takes ({:g} to {:g}): check the line's "
+                                      "values (impedance, delay, length, per-length figures)",
+                                      line.name, f.what, f.value, f.unit, syntax::kSmallestValue,
+                                      syntax::kLargestValue));
+    }
+    if (!lp.fixed && lp.sections >= kMaxSections)
+      diagnostics.error(line.span,
+                        fmt::format("line {} would need more than {} sections for its budget: "
+                                    "its delay is far longer than its edge; give it sections=N, a "
+                                    "slower rise= or a larger tolerance=",
+                                    line.name, kMaxSections));
+  }
+  if (plan.elements > kMaxDeckElements) {
+    // Pointed at the line with the most elements: the one to change first.
+    const auto largest =
+        std::max_element(plan.lines.begin(), plan.lines.end(),
+                         [](const LinePlan& a, const LinePlan& b) { return a.elements < b.elements; });
+    const Line& line = circuit.lines[static_cast<std::size_t>(largest - plan.lines.begin())];
+    diagnostics.error(line.span,
+                      fmt::format("the deck would hold {} ladder elements, more than the {} a "
+                                  "simulator could run ({} in line {}): lower its sections= or "
+                                  "raise its tolerance=",
+                                  plan.elements, kMaxDeckElements, largest->elements, line.name));
+  }
+  if (!(std::isfinite(plan.window) && plan.window > 0.0 && plan.window <= syntax::kLargestValue))
+    diagnostics.error(syntax::Span{},
+                      fmt::format("the observation window would be {:g} s: give a finite one "
+                                  "with 'set window'",
+                                  plan.window));
+  else if (!(std::isfinite(plan.time_step) && plan.time_step >= syntax::kSmallestValue &&
+             plan.window / plan.time_step <= 1e12))
+    diagnostics.error(syntax::Span{},
+                      fmt::format("the simulator's step would be {:g} s over a window of {:g} s, "
+                                  "more than 1e12 steps: shorten the window ('set window') or set "
+                                  "a longer step ('set step')",
+                                  plan.time_step, plan.window));
+}
+
+}  // namespace
+
 Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
   check_rest_start(circuit, diagnostics);
   Plan plan;
@@ -195,6 +262,8 @@ Plan plan_circuit(const Circuit& circuit, syntax::Diagnostics& diagnostics) {
   plan.window = plan_window(circuit);
   plan.closing = closing_times(circuit);
   plan.time_step = deck_time_step(circuit, plan);
+  // Only for a plan without errors: figures of a line that could not be planned mean nothing.
+  if (!diagnostics.has_errors()) check_deck_figures(circuit, plan, diagnostics);
   return plan;
 }
 

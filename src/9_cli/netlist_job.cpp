@@ -76,6 +76,11 @@ PreparedNetlist resolve_and_plan(const NetlistJob& job, syntax::InputFile file,
   auto description = syntax::parse_description(diagnostics);
   project::apply_defaults(description, job.defaults);
   netlist.circuit = model::resolve(description, diagnostics);
+  // A deck of no line would be a .tran of nothing (window 0): say so instead.
+  if (!diagnostics.has_errors() && netlist.circuit.lines.empty())
+    diagnostics.error(syntax::Span{},
+                      "the description has no line, so there is no deck to write: add one, "
+                      "for example 'line trunk drv -> rx ideal z0=50ohm delay=1ns'");
   if (!diagnostics.has_errors()) netlist.plan = plan::plan_circuit(netlist.circuit, diagnostics);
   messages += diagnostics.render();
   if (diagnostics.has_errors()) throw FileHasErrors(netlist.file.name, diagnostics.error_count());
