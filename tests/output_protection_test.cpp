@@ -156,3 +156,18 @@ TEST_CASE("every output rungs writes is recognised as its own and rewritten, mod
   CHECK(read_file(charts + "/error_trunk.svg") == "<svg>my own drawing</svg>\n");
   CHECK_FALSE(fs::exists(charts + "/error_br1.svg"));
 }
+
+TEST_CASE("a line break in the description's file name cannot add lines to the deck", "[cli]") {
+  Folder dir;
+  const std::string name = "board\nR1 a 0 1\n.rungs";
+  fs::copy_file(kExample, dir.path / name);
+  const std::string source = dir / name;
+  // The name, quoted for the shell as one word: it holds no single quote.
+  const auto r = run_rungs("emit -q --analytic '" + source + "' -o " + (dir / "a.cir") +
+                           " --report " + (dir / "a.txt"));
+  REQUIRE(r.exit_code == 0);
+  const std::string deck = read_file(dir / "a.cir");
+  CHECK(deck.find("\nR1 a 0 1") == std::string::npos);
+  CHECK(deck.find("board\\x0aR1 a 0 1\\x0a.rungs; do not edit") != std::string::npos);
+  CHECK(read_file(dir / "a.txt").find("\nR1 a 0 1") == std::string::npos);
+}

@@ -26,6 +26,30 @@ constexpr bool starts_with_folded(std::string_view text, std::string_view prefix
   return true;
 }
 
+/// True for an ASCII control byte (below a space, or DEL): a line break in a file name would
+/// end a comment line of the deck and start a netlist line of its own.
+constexpr bool is_control(char c) {
+  return static_cast<unsigned char>(c) < 0x20 || static_cast<unsigned char>(c) == 0x7f;
+}
+
+/// `text` with each control byte written as \xNN, so that it stays on one line and shows.
+inline std::string escape_controls(std::string_view text) {
+  static constexpr char kHex[] = "0123456789abcdef";
+  std::string out;
+  out.reserve(text.size());
+  for (char c : text) {
+    if (!is_control(c)) {
+      out += c;
+      continue;
+    }
+    const auto byte = static_cast<unsigned char>(c);
+    out += "\\x";
+    out += kHex[byte >> 4];
+    out += kHex[byte & 15];
+  }
+  return out;
+}
+
 /// True when `a` and `b` are the same once case folded.
 constexpr bool equals_folded(std::string_view a, std::string_view b) {
   return a.size() == b.size() && starts_with_folded(a, b);

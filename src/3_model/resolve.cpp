@@ -10,6 +10,7 @@
 
 #include "1_syntax/ast.h"
 #include "1_syntax/suggest.h"
+#include "1_syntax/text.h"
 #include "1_syntax/units.h"
 #include "2_physics/constants.h"
 #include "3_model/edges.h"
@@ -500,6 +501,9 @@ std::string file_stem(const std::string& path) {
   std::string stem = path.substr(path.find_last_of("/\\") + 1);
   if (auto dot = stem.rfind('.'); dot != std::string::npos && dot > 0) stem.resize(dot);
   if (stem.empty() || stem == "<stdin>") return "design";
+  // The name goes into the deck's comments: a line break in it must not start a line there.
+  for (char& c : stem)
+    if (syntax::is_control(c)) c = '_';
   return stem;
 }
 

@@ -8,6 +8,7 @@
 
 #include <fmt/format.h>
 
+#include "1_syntax/text.h"
 #include "6_emit/deck_buffer.h"
 #include "6_emit/ladder.h"
 #include "6_emit/names.h"
@@ -236,7 +237,7 @@ std::string check_templates(const TemplateSet& templates) {
 
 std::string deck_marker(std::string_view source_name) {
   return fmt::format("{}{} from {}; do not edit, regenerate it", kMarkerStart, RUNGS_VERSION,
-                     source_name);
+                     syntax::escape_controls(source_name));
 }
 
 bool is_deck_marker(std::string_view first_line) {

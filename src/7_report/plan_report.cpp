@@ -6,6 +6,7 @@
 
 #include <fmt/format.h>
 
+#include "1_syntax/text.h"
 #include "7_report/json_writer.h"
 
 namespace rungs::report {
@@ -145,7 +146,8 @@ std::string plan_text(const model::Circuit& circuit, const plan::Plan& plan,
   std::string out = fmt::format(
       "design {} ({}): {} line{}, tolerance {} of the swing\n"
       "window {} ns, simulator step at most {} ps\n\n",
-      circuit.name, source_name, circuit.lines.size(), circuit.lines.size() == 1 ? "" : "s",
+      circuit.name, syntax::escape_controls(source_name), circuit.lines.size(),
+      circuit.lines.size() == 1 ? "" : "s",
       percent(circuit.settings.tolerance), g4(plan.window, 1e-9), g4(plan.time_step, 1e-12));
   std::vector<std::vector<std::string>> rows = {
       {"line", "model", "Z0/ohm", "delay/ns", "shape", "sections", "L/nH", "C/pF", "fc/GHz",
