@@ -9,8 +9,10 @@
 #include <set>
 #include <sstream>
 #include <string>
+#include <utility>
 
 #include <sys/stat.h>
+#include <sys/wait.h>
 #include <unistd.h>
 
 #include "run_command.h"
@@ -170,4 +172,53 @@ TEST_CASE("a line break in the description's file name cannot add lines to the d
   CHECK(deck.find("\nR1 a 0 1") == std::string::npos);
   CHECK(deck.find("board\\x0aR1 a 0 1\\x0a.rungs; do not edit") != std::string::npos);
   CHECK(read_file(dir / "a.txt").find("\nR1 a 0 1") == std::string::npos);
+}
+
+TEST_CASE("inputs that are not descriptions are refused, not read as an empty design",
+          "[cli]") {
+  Folder dir;
+  const auto folder = run_rungs("lines " + dir.path.string());
+  CHECK(folder.exit_code == 3);
+  CHECK(folder.err.find("is a folder") != std::string::npos);
+  const auto device = run_rungs("lines /dev/zero");
+  CHECK(device.exit_code == 3);
+  CHECK(device.err == "rungs: '/dev/zero' is not a plain file; to read a stream, pipe it into -\n");
+  // run_rungs gives the program a standard input of its own; these need another one.
+  auto with_input = [&](const std::string& redirect) {
+    const std::string err = dir / "err.txt";
+    const int status = std::system(
+        (std::string(RUNGS_BINARY) + " lines - " + redirect + " >/dev/null 2>" + err).c_str());
+    return std::make_pair(WIFEXITED(status) ? WEXITSTATUS(status) : -1, read_file(err));
+  };
+  const auto [closed_exit, closed_err] = with_input("<&-");
+  CHECK(closed_exit == 3);
+  CHECK(closed_err.find("standard input is closed") != std::string::npos);
+  // A stream without end is cut at the stated size instead of filling the memory.
+  const auto [endless_exit, endless_err] = with_input("</dev/zero");
+  CHECK(endless_exit == 3);
+  CHECK(endless_err.find("larger than 256 MiB") != std::string::npos);
+}
+
+TEST_CASE("a closed or full standard error does not crash the program", "[cli]") {
+  Folder dir;
+  write_file(dir / "bad.rungs", "line a x -> y coax\n");
+  // With standard error closed or full, the exit code still tells what happened (2: bad
+  // input); before, an uncaught exception ended the program with SIGABRT (134 from a shell).
+  // run_rungs captures standard error itself, so these run through the shell as they are.
+  auto exit_of = [](const std::string& args) {
+    const int status = std::system((std::string(RUNGS_BINARY) + " " + args).c_str());
+    return WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+  };
+  CHECK(exit_of("lines " + (dir / "bad.rungs") + " 2>&-") == 2);
+  CHECK(exit_of("emit --analytic " + (dir / "bad.rungs") + " -o - 2>/dev/full") == 2);
+}
+
+TEST_CASE("a FIFO among the outputs is refused before any output is written", "[cli]") {
+  Folder dir;
+  REQUIRE(::mkfifo((dir / "pipe").c_str(), 0600) == 0);
+  const auto r = run_rungs("emit -q --analytic " + (dir / "d.rungs") + " -o " + (dir / "a.cir") +
+                           " --report " + (dir / "pipe"));
+  CHECK(r.exit_code == 3);
+  CHECK(r.err.find("is not a plain file") != std::string::npos);
+  CHECK_FALSE(fs::exists(dir / "a.cir"));
 }

@@ -86,13 +86,10 @@ int emit_command(const std::string& path, const EmitOptions& options) {
   const PreparedNetlist netlist = prepare_for_command(job, pool);
   const std::vector<JobOutput> files = job_outputs(job, netlist);
   // Every refusal before the first write, so that a refused report leaves the deck as it was.
-  if (!options.force) {
-    for (const JobOutput& output : files)
-      if (output.path != "-" && is_foreign_file(output.path, output.kind))
-        throw RefusedOverwrite(output.path);
-    if (!options.depfile.empty() && is_foreign_file(options.depfile, OutputKind::depfile))
-      throw RefusedOverwrite(options.depfile);
-  }
+  for (const JobOutput& output : files)
+    refuse_before_writing(output.path, output.kind, options.force);
+  if (!options.depfile.empty())
+    refuse_before_writing(options.depfile, OutputKind::depfile, options.force);
   for (const JobOutput& output : files)
     write_atomically(output.path, output.write, output.kind, options.force);
   if (!options.depfile.empty()) write_emit_depfile(options.depfile, job, netlist, options.force);

@@ -16,13 +16,26 @@ RefusedOverwrite::RefusedOverwrite(const std::string& path)
                                        "overwriting it (use --force to replace it)",
                                        path)) {}
 
+namespace {
+
+/// Writes a message to standard error. When that is closed or full there is no one left to
+/// tell, so the failure is ignored (the exit code still says what happened) rather than
+/// ending the program with an uncaught exception.
+void to_standard_error(const std::string& text) {
+  std::fwrite(text.data(), 1, text.size(), stderr);
+  std::fflush(stderr);
+  std::clearerr(stderr);
+}
+
+}  // namespace
+
 int report(const Error& error) {
-  fmt::print(stderr, "{}\n", error.what());
+  to_standard_error(fmt::format("{}\n", error.what()));
   return error.exit_code();
 }
 
 void print_note(const std::string& message) {
-  fmt::print(stderr, "rungs: {}\n", message);
+  to_standard_error(fmt::format("rungs: {}\n", message));
 }
 
 }  // namespace rungs::cli

@@ -8,6 +8,10 @@
 #include <fstream>
 #include <iostream>
 #include <sstream>
+#include <vector>
+
+#include <fcntl.h>
+#include <unistd.h>
 
 #include <fmt/format.h>
 
@@ -137,16 +141,43 @@ PreparedNetlist prepare(const NetlistJob& job, syntax::InputFile file, plan::Thr
 
 }  // namespace
 
-syntax::InputFile read_source(const std::string& path) {
-  std::ostringstream text;
-  if (path == "-") {
-    text << std::cin.rdbuf();
-    return syntax::InputFile{"<stdin>", text.str()};
+namespace {
+
+/// All of `in`, refused (FileError) past kMaxDescriptionBytes: a description of that size is
+/// not one a person wrote, and a stream without end must not fill the memory.
+std::string read_at_most(std::istream& in, const std::string& what) {
+  std::string text;
+  std::vector<char> chunk(1 << 16);
+  while (in) {
+    in.read(chunk.data(), static_cast<std::streamsize>(chunk.size()));
+    text.append(chunk.data(), static_cast<std::size_t>(in.gcount()));
+    if (text.size() > kMaxDescriptionBytes)
+      throw FileError(fmt::format("{} is larger than {} MiB, more than a description holds; "
+                                  "split the design into several descriptions",
+                                  what, kMaxDescriptionBytes >> 20));
   }
+  if (in.bad()) throw FileError(fmt::format("cannot read {}", what));
+  return text;
+}
+
+}  // namespace
+
+syntax::InputFile read_source(const std::string& path) {
+  if (path == "-") {
+    if (::fcntl(STDIN_FILENO, F_GETFD) == -1)
+      throw FileError("standard input is closed; give a description file, or pipe one into -");
+    return syntax::InputFile{"<stdin>", read_at_most(std::cin, "standard input")};
+  }
+  std::error_code ec;
+  const auto status = std::filesystem::status(path, ec);
+  if (std::filesystem::is_directory(status))
+    throw FileError(fmt::format("'{}' is a folder; name a description file in it", path));
+  if (std::filesystem::exists(status) && !std::filesystem::is_regular_file(status))
+    throw FileError(fmt::format("'{}' is not a plain file; to read a stream, pipe it into -",
+                                path));
   std::ifstream in(path, std::ios::binary);
   if (!in) throw FileError(fmt::format("cannot read '{}': {}", path, std::strerror(errno)));
-  text << in.rdbuf();
-  return syntax::InputFile{path, text.str()};
+  return syntax::InputFile{path, read_at_most(in, "'" + path + "'")};
 }
 
 const plan::Verification* verification_of(const PreparedNetlist& netlist) {

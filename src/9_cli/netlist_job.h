@@ -88,6 +88,9 @@ void write_plots(const std::string& folder, const PreparedNetlist& netlist,
 std::string netlist_text(const NetlistJob& job, const PreparedNetlist& netlist);
 
 /// One file a netlist job produces.
+/// The largest description read_source takes, in bytes.
+inline constexpr std::size_t kMaxDescriptionBytes = std::size_t{256} << 20;
+
 struct JobOutput {
   std::string path;
   OutputKind kind = OutputKind::netlist;

@@ -324,6 +324,16 @@ bool written_by_rungs(const std::string& path, OutputKind kind) {
   return false;
 }
 
+void refuse_before_writing(const std::string& path, OutputKind kind, bool force) {
+  if (path == "-") return;
+  refuse_foreign(path, kind, force);
+  std::error_code ec;
+  const fs::file_status status = fs::status(path, ec);  // through a link
+  if (fs::exists(status) && !fs::is_regular_file(status))
+    throw FileError(fmt::format(
+        "'{}' is not a plain file; name a file to write, or - for standard output", path));
+}
+
 bool is_foreign_file(const std::string& path, OutputKind kind) {
   std::error_code ec;
   if (!fs::exists(path, ec) || !fs::is_regular_file(path, ec) || fs::is_empty(path, ec))

@@ -35,6 +35,11 @@ void refuse_clashing_outputs(const std::vector<NamedOutput>& inputs,
 void write_atomically(const std::string& path, const ContentWriter& write, OutputKind kind,
                       bool force);
 
+/// Throws what write_atomically would throw before writing a byte: RefusedOverwrite for a
+/// foreign file (unless `force`), FileError for a path that is not a plain file. A command
+/// that writes several files calls it for each before it writes the first.
+void refuse_before_writing(const std::string& path, OutputKind kind, bool force);
+
 /// As write_atomically, but when the file already holds exactly the bytes `write` produces,
 /// it is left alone, timestamp included, and the temporary file is removed. The content is
 /// compared while it is produced, so a large file is never held in memory. Returns whether the
