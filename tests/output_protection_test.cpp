@@ -222,3 +222,24 @@ TEST_CASE("a FIFO among the outputs is refused before any output is written", "[
   CHECK(r.err.find("is not a plain file") != std::string::npos);
   CHECK_FALSE(fs::exists(dir / "a.cir"));
 }
+
+TEST_CASE("a manifest's outputs stay inside its project", "[cli][build]") {
+  Folder dir;
+  write_file(dir / "rungs.toml",
+             "[[netlist]]\nsource = \"d.rungs\"\noutput = \"../escaped.cir\"\n"
+             "report = \"/tmp/rungs_absolute_report.txt\"\n");
+  const auto r = run_rungs("build --analytic --manifest " + (dir / "rungs.toml"));
+  CHECK(r.exit_code == 2);
+  CHECK(r.err.find("rungs.toml:3:10: error: '../escaped.cir' is outside the manifest's folder") !=
+        std::string::npos);
+  CHECK(r.err.find("rungs.toml:4:10: error: '/tmp/rungs_absolute_report.txt' is outside") !=
+        std::string::npos);
+  CHECK_FALSE(fs::exists(dir.path.parent_path() / "escaped.cir"));
+  CHECK_FALSE(fs::exists("/tmp/rungs_absolute_report.txt"));
+  // The manifest may not name itself or a description as an output either.
+  write_file(dir / "rungs.toml", "[[netlist]]\nsource = \"d.rungs\"\noutput = \"d.rungs\"\n");
+  const auto self = run_rungs("build --analytic --manifest " + (dir / "rungs.toml"));
+  CHECK(self.exit_code == 2);
+  CHECK(self.err.find("rungs.toml:3:10: error: 'd.rungs' is a netlist's source") !=
+        std::string::npos);
+}

@@ -79,6 +79,22 @@ NetlistJob job_of(const project::Manifest& manifest, const project::NetlistEntry
   job.output = from_manifest(folder, entry.output);
   if (!entry.report.empty()) job.report = from_manifest(folder, entry.report);
   if (!entry.report_json.empty()) job.report_json = from_manifest(folder, entry.report_json);
+  // A manifest writes inside its own project: an output outside it (absolute, or climbing
+  // out with "..") could be any file of the machine.
+  const std::pair<const std::string*, const syntax::Span*> written[] = {
+      {&entry.output, &entry.output_span},
+      {&entry.report, &entry.report_span},
+      {&entry.report_json, &entry.report_json_span}};
+  for (const auto& [path, span] : written) {
+    if (path->empty()) continue;
+    const fs::path relative = fs::path(*path).lexically_normal();
+    if (relative.is_absolute() || relative.has_root_name() ||
+        (!relative.empty() && *relative.begin() == ".."))
+      diagnostics.error(*span, fmt::format("'{}' is outside the manifest's folder; a build writes "
+                                           "only inside its project: write a path relative to "
+                                           "the manifest, without '..'",
+                                           *path));
+  }
   job.output_named_by = fmt::format("the manifest's output for {}", entry.source);
   job.report_named_by = fmt::format("the manifest's report for {}", entry.source);
   job.report_json_named_by = fmt::format("the manifest's report_json for {}", entry.source);

@@ -165,7 +165,7 @@ CLI::App* add_build(CLI::App& app, Arguments& a) {
   build->add_option("--manifest", o.manifest,
                     "The manifest (default: rungs.toml here or in a folder above)");
   build->add_option("-j,--jobs", o.jobs, "Outputs written at once (default: one a processor core)")
-      ->check(CLI::PositiveNumber);
+      ->check(CLI::Range(1u, 1024u, "a whole number from 1 to 1024"));
   build->add_flag("--check", o.check,
                   "Write nothing; exit 1 listing every output that is stale or missing");
   build->add_option("--depfile", o.depfile,
