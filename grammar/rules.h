@@ -45,8 +45,10 @@ struct production {
   }
 };
 
-#define RUNGS_PRODUCTION(rule_name) \
-  struct rule_name##_id : production<rule_name##_id> { static constexpr const char* name = #rule_name; }
+#define RUNGS_PRODUCTION(rule_name)                    \
+  struct rule_name##_id : production<rule_name##_id> { \
+    static constexpr const char* name = #rule_name;    \
+  }
 
 RUNGS_PRODUCTION(line_of_text);
 RUNGS_PRODUCTION(comment);
@@ -75,11 +77,29 @@ RUNGS_PRODUCTION(unit);
 
 /// The names of the productions above, for the test that holds them against rungs.ebnf.
 inline const std::set<std::string>& production_names() {
-  static const std::set<std::string> names = {
-      "line_of_text", "comment", "statement", "design_statement", "set_statement",
-      "line_statement", "drive_statement", "load_statement", "waveform", "step_waveform",
-      "pulse_waveform", "dc_waveform", "load_network", "series_network", "parallel_network",
-      "load_term", "param", "value", "node", "name", "quantity", "number", "unit"};
+  static const std::set<std::string> names = {"line_of_text",
+                                              "comment",
+                                              "statement",
+                                              "design_statement",
+                                              "set_statement",
+                                              "line_statement",
+                                              "drive_statement",
+                                              "load_statement",
+                                              "waveform",
+                                              "step_waveform",
+                                              "pulse_waveform",
+                                              "dc_waveform",
+                                              "load_network",
+                                              "series_network",
+                                              "parallel_network",
+                                              "load_term",
+                                              "param",
+                                              "value",
+                                              "node",
+                                              "name",
+                                              "quantity",
+                                              "number",
+                                              "unit"};
   return names;
 }
 
@@ -89,7 +109,8 @@ inline const auto letter = x3::char_('a', 'z') | x3::char_('A', 'Z');
 inline const auto digit = x3::char_('0', '9');
 inline const auto letter_ = letter | x3::char_('_');
 // Single bytes of the UTF-8 forms of µ (C2 B5), μ (CE BC), Ω (CE A9, E2 84 A6).
-inline const auto unit_start = letter | x3::char_("/%") | x3::char_("\xC2\xB5\xCE\xBC\xA9\xE2\x84\xA6");
+inline const auto unit_start =
+    letter | x3::char_("/%") | x3::char_("\xC2\xB5\xCE\xBC\xA9\xE2\x84\xA6");
 
 /// Parses `subject` and makes a Word or Value of the characters it matched. A directive of
 /// our own because X3 mishandles structs adapted with a single member.
@@ -130,28 +151,6 @@ using value_directive = token_directive<ast::Value, Subject>;
 inline constexpr directive_generator<word_directive> as_word{};
 inline constexpr directive_generator<value_directive> as_value{};
 
-/// Parses `subject` into a copy of the attribute and keeps it only on success, so a failed
-/// alternative leaves nothing behind (X3 of Boost 1.74 has no hold[] of its own).
-template <typename Subject>
-struct hold_directive : x3::unary_parser<Subject, hold_directive<Subject>> {
-  using base_type = x3::unary_parser<Subject, hold_directive<Subject>>;
-  static bool const is_pass_through_unary = true;
-  constexpr explicit hold_directive(Subject const& inner) : base_type(inner) {}
-
-  template <typename Iterator, typename Context, typename RContext, typename Attribute>
-  bool parse(Iterator& first, Iterator const& last, Context const& context, RContext& rcontext,
-             Attribute& attribute) const {
-    Attribute copy(attribute);
-    Iterator i = first;
-    if (!this->subject.parse(i, last, context, rcontext, copy)) return false;
-    attribute = std::move(copy);
-    first = i;
-    return true;
-  }
-};
-
-inline constexpr directive_generator<hold_directive> hold{};
-
 /// A keyword matched whole: `line` is not the start of `liner`.
 inline auto keyword(const char* word) {
   return x3::lexeme[x3::lit(word) >> !(letter_ | digit)];
@@ -172,8 +171,6 @@ x3::rule<pulse_waveform_id, ast::Waveform> const pulse_waveform = "pulse";
 x3::rule<dc_waveform_id, ast::Waveform> const dc_waveform = "dc";
 x3::rule<load_network_id, ast::LoadNetwork> const load_network =
     "a load (open, short, or values such as 50ohm || 4pF)";
-x3::rule<series_network_id, ast::LoadNetwork> const series_network = "a series load";
-x3::rule<parallel_network_id, ast::LoadNetwork> const parallel_network = "a parallel load";
 x3::rule<load_term_id, ast::LoadTerm> const load_term = "a value such as 50ohm, 4pF or 10nH";
 x3::rule<param_id, ast::Param> const param = "key=value";
 x3::rule<value_id, ast::Value> const value = "a value";
@@ -193,8 +190,6 @@ x3::rule<struct arrow_id> const arrow = "'->' between the two ends";
 x3::rule<struct to_id> const to = "'to' between the two levels";
 x3::rule<struct close_id> const close_bracket = "')'";
 x3::rule<struct end_id> const end_of_line = "the end of the line";
-x3::rule<struct series_terms_id, std::vector<ast::LoadTerm>> const series_terms = "a series load";
-x3::rule<struct parallel_terms_id, std::vector<ast::LoadTerm>> const parallel_terms = "a parallel load";
 
 namespace actions {
 inline const auto assign = [](auto& ctx) { x3::_val(ctx) = std::move(x3::_attr(ctx)); };
@@ -207,14 +202,29 @@ inline const auto design_name = [](auto& ctx) { x3::_val(ctx).name = std::move(x
 x3::rule<struct value_word_id, ast::Value> const value_word = "a value";
 x3::rule<struct open_network_id, ast::LoadNetwork> const open_network = "open";
 x3::rule<struct short_network_id, ast::LoadNetwork> const short_network = "short";
-x3::rule<struct single_network_id, ast::LoadNetwork> const single_network = "a load value";
+
+/// series_network | parallel_network | load_term of rungs.ebnf, parsed in one pass: the first
+/// term once, then `+ term`... (series) or `|| term`... (parallel), or nothing (single). The
+/// three productions all start with a load_term; trying them one after another as
+/// alternatives parsed a bracketed term three times at every level of brackets, which is
+/// exponential in the nesting depth. An operator with no term after it is left unconsumed,
+/// as the alternatives did, so the end-of-line check reports it.
+struct load_chain_parser : x3::parser<load_chain_parser> {
+  using attribute_type = ast::LoadNetwork;
+  static bool const has_attribute = true;
+
+  template <typename Iterator, typename Context, typename RContext, typename Attribute>
+  bool parse(Iterator& first, Iterator const& last, Context const& context, RContext& rcontext,
+             Attribute& attribute) const;
+};
+inline constexpr load_chain_parser load_chain{};
 
 // Tokens.
 inline const auto name_chars = x3::lexeme[letter_ >> *(letter_ | digit)];
 inline const auto name_def = as_word[name_chars];
-inline const auto number_def = x3::lexeme[-x3::char_("+-") >>
-                                          ((+digit >> -('.' >> *digit)) | ('.' >> +digit)) >>
-                                          -(x3::char_("eE") >> -x3::char_("+-") >> +digit)];
+inline const auto number_def =
+    x3::lexeme[-x3::char_("+-") >> ((+digit >> -('.' >> *digit)) | ('.' >> +digit)) >>
+               -(x3::char_("eE") >> -x3::char_("+-") >> +digit)];
 inline const auto unit_def = x3::lexeme[unit_start >> *(unit_start | digit)];
 inline const auto quantity_def = as_value[x3::lexeme[number >> -unit]];
 // A word followed by '=' is the next parameter, not this one's value.
@@ -233,45 +243,77 @@ inline const auto arrow_def = x3::lit("->");
 inline const auto to_def = keyword("to");
 inline const auto close_bracket_def = x3::lit(')');
 inline const auto end_of_line_def = x3::eol | x3::eoi;
-inline const auto series_terms_def = load_term >> +('+' >> load_term);
-inline const auto parallel_terms_def = load_term >> +(x3::lit("||") >> load_term);
-inline const auto open_network_def =
-    x3::attr(ast::NetworkKind::open) >> keyword("open") >> x3::attr(std::vector<ast::LoadTerm>{});
+inline const auto open_network_def = x3::attr(ast::NetworkKind::open) >>
+                                     keyword("open") >> x3::attr(std::vector<ast::LoadTerm>{});
 inline const auto short_network_def = x3::attr(ast::NetworkKind::short_circuit) >>
                                       keyword("short") >> x3::attr(std::vector<ast::LoadTerm>{});
-inline const auto single_network_def = x3::attr(ast::NetworkKind::single) >> x3::repeat(1)[load_term];
 
 // Statements.
 inline const auto design_statement_def = (keyword("design") > name)[actions::design_name];
 inline const auto set_statement_def = keyword("set") > setting_name > value;
 inline const auto line_statement_def =
     keyword("line") > line_name > node > arrow > node > model_name > *param;
-inline const auto step_waveform_def =
-    x3::attr(ast::WaveKind::step) >> keyword("step") > level > to > level;
-inline const auto pulse_waveform_def =
-    x3::attr(ast::WaveKind::pulse) >> keyword("pulse") > level > to > level;
-inline const auto dc_waveform_def =
-    x3::attr(ast::WaveKind::dc) >> keyword("dc") > level >> x3::attr(boost::optional<ast::Value>{});
+inline const auto step_waveform_def = x3::attr(ast::WaveKind::step) >> keyword("step") > level > to
+                                      > level;
+inline const auto pulse_waveform_def = x3::attr(ast::WaveKind::pulse) >> keyword("pulse") > level
+                                       > to > level;
+inline const auto dc_waveform_def = x3::attr(ast::WaveKind::dc) >> keyword("dc") > level
+                                    >> x3::attr(boost::optional<ast::Value>{});
 inline const auto waveform_def = step_waveform | pulse_waveform | dc_waveform;
 inline const auto drive_statement_def = keyword("drive") > node > waveform > *param;
 inline const auto load_term_def = quantity | ('(' > load_network > close_bracket);
-inline const auto series_network_def = x3::attr(ast::NetworkKind::series) >> series_terms;
-inline const auto parallel_network_def = x3::attr(ast::NetworkKind::parallel) >> parallel_terms;
-// hold[]: a series attempt that fails after its first term must not leave that term behind
-// in the attribute the parallel attempt then fills.
-inline const auto load_network_def = open_network | short_network | hold[series_network] |
-                                     hold[parallel_network] | single_network;
+// The first term is parsed once and what follows it decides the kind (see load_chain_parser).
+inline const auto load_network_def = open_network | short_network | load_chain;
 inline const auto load_statement_def = keyword("load") > node > load_network > *param;
-inline const auto statement_def = design_statement[actions::assign] | set_statement[actions::assign] |
-                                  line_statement[actions::assign] | drive_statement[actions::assign] |
+inline const auto statement_def = design_statement[actions::assign] |
+                                  set_statement[actions::assign] | line_statement[actions::assign] |
+                                  drive_statement[actions::assign] |
                                   load_statement[actions::assign];
 inline const auto line_of_text_def = -statement[actions::assign] >> -comment > end_of_line;
 
 BOOST_SPIRIT_DEFINE(line_of_text, comment, statement, design_statement, set_statement,
                     line_statement, drive_statement, load_statement, waveform, step_waveform,
-                    pulse_waveform, dc_waveform, load_network, series_network, parallel_network,
-                    load_term, param, value, node, name, quantity, number, unit)
-BOOST_SPIRIT_DEFINE(line_name, setting_name, level, model_name, arrow, to, close_bracket, end_of_line, series_terms,
-                    parallel_terms, value_word, open_network, short_network, single_network)
+                    pulse_waveform, dc_waveform, load_network, load_term, param, value, node, name,
+                    quantity, number, unit)
+BOOST_SPIRIT_DEFINE(line_name, setting_name, level, model_name, arrow, to, close_bracket,
+                    end_of_line, value_word, open_network, short_network)
+
+template <typename Iterator, typename Context, typename RContext, typename Attribute>
+bool load_chain_parser::parse(Iterator& first, Iterator const& last, Context const& context,
+                              RContext& rcontext, Attribute& attribute) const {
+  ast::LoadNetwork network;
+  Iterator i = first;
+  ast::LoadTerm term;
+  if (!load_term.parse(i, last, context, rcontext, term)) return false;
+  network.terms.push_back(std::move(term));
+  // The operator that joins the terms is the one after the first term; the other one ends
+  // the chain (mixing them without brackets is reported by the end-of-line check).
+  const auto plus = x3::lit('+');
+  const auto bars = x3::lit("||");
+  auto more = [&](auto const& op) {
+    while (true) {
+      Iterator j = i;
+      if (!op.parse(j, last, context, rcontext, x3::unused)) return;
+      ast::LoadTerm next;
+      if (!load_term.parse(j, last, context, rcontext, next)) return;
+      network.terms.push_back(std::move(next));
+      i = j;
+    }
+  };
+  more(plus);
+  if (network.terms.size() > 1) {
+    network.kind = ast::NetworkKind::series;
+  } else {
+    more(bars);
+    network.kind = network.terms.size() > 1 ? ast::NetworkKind::parallel : ast::NetworkKind::single;
+  }
+  const char* production = network.kind == ast::NetworkKind::series     ? series_network_id::name
+                           : network.kind == ast::NetworkKind::parallel ? parallel_network_id::name
+                                                                        : nullptr;
+  if (production) x3::get<trace_tag>(context)->insert(production);
+  x3::traits::move_to(std::move(network), attribute);
+  first = i;
+  return true;
+}
 
 }  // namespace rungs::grammar

@@ -1,5 +1,6 @@
 // Parsing a description's text into its syntax tree, reporting every syntax error.
 #pragma once
+#include <cstddef>
 #include <set>
 #include <string>
 
@@ -19,8 +20,14 @@ ast::Description parse_description(Diagnostics& diagnostics,
 /// "description", which is the line loop of parse_description itself.
 const std::set<std::string>& grammar_productions();
 
+/// The deepest nesting of brackets in a load: a deeper line is an error before the grammar
+/// runs (its recursion follows the brackets).
+inline constexpr int kMaxBracketDepth = 64;
+/// The most values one load takes, counted through its brackets: every value becomes
+/// elements and nodes of the circuit that the later stages solve.
+inline constexpr std::size_t kMaxLoadValues = 256;
+
 /// The statement keywords, for "did you mean".
-inline constexpr std::string_view kStatementKeywords[] = {"design", "set", "line", "drive",
-                                                          "load"};
+inline constexpr std::string_view kStatementKeywords[] = {"design", "set", "line", "drive", "load"};
 
 }  // namespace rungs::syntax
