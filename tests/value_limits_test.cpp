@@ -71,3 +71,21 @@ TEST_CASE("a description with no line is an error, not a deck of .tran 0 0 0 0",
   CHECK(comment.exit_code == 2);
   CHECK(comment.err.find("nothing written") != std::string::npos);
 }
+
+TEST_CASE("nested brackets and long chains in a load are bounded", "[cli][limits]") {
+  const std::string line = "line a x -> y ideal z0=50ohm delay=1ns\n"
+                           "drive x step 0V to 1V rise=1ns source=50ohm\n";
+  // 16 levels: parsed once (each level tripled the work before: over 20 s).
+  const std::string sixteen = "load y " + std::string(16, '(') + "50ohm" + std::string(16, ')');
+  CHECK(emit(line + sixteen + "\n").exit_code == 0);
+  // 100,000 open brackets overflowed the stack (SIGSEGV); now a located error at the 65th.
+  const auto deep = emit(line + "load y " + std::string(100000, '(') + "50ohm\n");
+  CHECK(deep.exit_code == 2);
+  CHECK(deep.err.rfind("<stdin>:3:72: error: brackets nested deeper than 64 levels", 0) == 0);
+  // A chain past the stated number of values is an error, not minutes and gigabytes.
+  std::string chain = "load y 1ohm";
+  for (int i = 0; i < 300; ++i) chain += " + 1ohm";
+  const auto longer = emit(line + chain + "\n");
+  CHECK(longer.exit_code == 2);
+  CHECK(longer.err.find("256") != std::string::npos);
+}
