@@ -24,7 +24,21 @@ std::string Diagnostics::render() const {
     return a.span.begin < b.span.begin;
   });
   std::string out;
-  for (const Diagnostic& d : sorted) out += render_diagnostic(*file_, d);
+  const std::size_t shown = std::min(sorted.size(), kMaxDiagnosticsShown);
+  for (std::size_t i = 0; i < shown; ++i) out += render_diagnostic(*file_, sorted[i]);
+  if (sorted.size() > shown) {
+    const auto errors = static_cast<std::size_t>(
+        std::count_if(sorted.begin() + static_cast<std::ptrdiff_t>(shown), sorted.end(),
+                      [](const Diagnostic& d) { return d.severity == Severity::error; }));
+    const std::size_t warnings = sorted.size() - shown - errors;
+    std::string rest;
+    if (errors > 0) rest = fmt::format("{} more {}", errors, errors == 1 ? "error" : "errors");
+    if (warnings > 0)
+      rest += fmt::format("{}{} {}", errors > 0 ? " and " : "", warnings,
+                          warnings == 1 ? "warning" : "warnings");
+    if (errors == 0) rest = "more: " + rest;
+    out += fmt::format("{}: {} not shown\n", file_->name, rest);
+  }
   return out;
 }
 
@@ -33,24 +47,35 @@ std::string render_diagnostic(const InputFile& file, const Diagnostic& diagnosti
   const std::string_view line = file.line_of(diagnostic.span.begin);
   const char* label = diagnostic.severity == Severity::error ? "error" : "warning";
 
+  // A long line is echoed as a window of about kEchoWidth bytes around the column, cut at
+  // character boundaries and marked with "..." where it was cut.
+  const std::size_t line_begin = static_cast<std::size_t>(line.data() - file.text.data());
+  const std::size_t at = std::min(diagnostic.span.begin, line_begin + line.size()) - line_begin;
+  std::size_t from = 0;
+  std::size_t to = line.size();
+  if (line.size() > kEchoWidth) {
+    from = at > kEchoWidth / 2 ? at - kEchoWidth / 2 : 0;
+    while (from > 0 && is_utf8_continuation(line[from])) --from;
+    to = std::min(line.size(), from + kEchoWidth);
+    while (to < line.size() && is_utf8_continuation(line[to])) ++to;
+  }
+  const std::string_view shown = line.substr(from, to - from);
+  const char* const before = from > 0 ? "..." : "";
+  const char* const after = to < line.size() ? "..." : "";
+
   // The caret line copies tabs from the source so the caret lines up in any terminal.
-  std::string marker;
-  int column = 1;
-  for (char c : line) {
-    if (column >= where.column) break;
-    if (is_utf8_continuation(c)) continue;
-    marker += c == '\t' ? '\t' : ' ';
-    ++column;
+  std::string marker(std::string_view(before).size(), ' ');
+  for (std::size_t i = from; i < at; ++i) {
+    if (is_utf8_continuation(line[i])) continue;
+    marker += line[i] == '\t' ? '\t' : ' ';
   }
   marker += '^';
-  const std::size_t line_begin = static_cast<std::size_t>(line.data() - file.text.data());
-  const std::size_t line_end = line_begin + line.size();
-  const std::size_t span_end = std::min(diagnostic.span.end, line_end);
+  const std::size_t span_end = std::min(diagnostic.span.end, line_begin + to);
   for (std::size_t i = diagnostic.span.begin + 1; i < span_end; ++i) {
     if (!is_utf8_continuation(file.text[i])) marker += '~';
   }
-  return fmt::format("{}:{}:{}: {}: {}\n{}\n{}\n", file.name, where.line, where.column, label,
-                     diagnostic.message, line, marker);
+  return fmt::format("{}:{}:{}: {}: {}\n{}{}{}\n{}\n", file.name, where.line, where.column, label,
+                     diagnostic.message, before, shown, after, marker);
 }
 
 }  // namespace rungs::syntax

@@ -1,5 +1,6 @@
 // The one path by which every user-facing error and warning is collected and printed.
 #pragma once
+#include <cstddef>
 #include <string>
 #include <vector>
 
@@ -8,6 +9,11 @@
 namespace rungs::syntax {
 
 enum class Severity { error, warning };
+
+/// How many diagnostics of one file render() shows; a last line counts the rest.
+inline constexpr std::size_t kMaxDiagnosticsShown = 50;
+/// How many bytes of a long source line a diagnostic echoes, around its column.
+inline constexpr std::size_t kEchoWidth = 100;
 
 /// One message about a span of the source.
 struct Diagnostic {
@@ -30,8 +36,9 @@ class Diagnostics {
   const std::vector<Diagnostic>& all() const { return list_; }
   const InputFile& file() const { return *file_; }
 
-  /// Every diagnostic in source order, each as
-  /// `file:line:col: error: message`, the source line, and a caret with tildes under the span.
+  /// The diagnostics in source order, each as `file:line:col: error: message`, the source
+  /// line (a window of it when it is long), and a caret with tildes under the span; the first
+  /// kMaxDiagnosticsShown only, then a line `file: N more errors not shown`.
   std::string render() const;
 
  private:

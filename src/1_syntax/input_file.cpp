@@ -18,13 +18,16 @@ bool breaks_line(std::string_view text, std::size_t i) {
 Location InputFile::locate(std::size_t offset) const {
   offset = std::min(offset, text.size());
   Location where;
-  std::size_t line_start = 0;
-  for (std::size_t i = 0; i < offset; ++i) {
-    if (breaks_line(text, i)) {
-      ++where.line;
-      line_start = i + 1;
-    }
+  // Counted with std::count (vectorised): a lone CR breaks a line too, so CRs are counted
+  // only when the text has any (CRLF counts once, at its LF).
+  const std::string_view before = std::string_view(text).substr(0, offset);
+  where.line += static_cast<int>(std::count(before.begin(), before.end(), '\n'));
+  if (before.find('\r') != std::string_view::npos) {
+    for (std::size_t i = 0; i < offset; ++i)
+      if (text[i] == '\r' && breaks_line(text, i)) ++where.line;
   }
+  std::size_t line_start = offset;
+  while (line_start > 0 && !breaks_line(text, line_start - 1)) --line_start;
   for (std::size_t i = line_start; i < offset; ++i) {
     if (!is_utf8_continuation(text[i])) ++where.column;
   }
