@@ -203,21 +203,14 @@ std::vector<std::string> first_lines(const std::string& path, std::size_t count,
   return lines;
 }
 
-bool starts_with(std::string_view text, std::string_view prefix) {
-  return text.substr(0, prefix.size()) == prefix;
-}
-bool ends_with(std::string_view text, std::string_view suffix) {
-  return text.size() >= suffix.size() && text.substr(text.size() - suffix.size()) == suffix;
-}
-
 /// A depfile as project::make_depfile writes it: rule lines ("TARGETS: \\", "PATH:"),
 /// indented prerequisites, blank lines; a makefile's recipes (a tab) or assignments are not.
 bool is_depfile_text(const std::vector<std::string>& lines) {
   for (const std::string& line : lines) {
     if (line.empty()) continue;
     if (line.front() == '\t') return false;
-    if (starts_with(line, "  ")) continue;
-    if (!ends_with(line, ":") && !ends_with(line, ": \\") && !ends_with(line, " \\")) return false;
+    if (line.starts_with("  ")) continue;
+    if (!line.ends_with(":") && !line.ends_with(" \\")) return false;
   }
   return !lines.empty();
 }
@@ -305,19 +298,20 @@ bool written_by_rungs(const std::string& path, OutputKind kind) {
     case OutputKind::report: {
       // report::plan_text's first line: "design NAME (SOURCE): N lines, tolerance ..."
       const std::string line = read_first_line(path);
-      return starts_with(line, "design ") && line.find("): ") != std::string::npos &&
+      return line.starts_with("design ") && line.find("): ") != std::string::npos &&
              line.find(", tolerance ") != std::string::npos;
     }
     case OutputKind::report_json: {
       const std::vector<std::string> lines = first_lines(path, 2, 4096);
-      return lines.size() == 2 && lines[0] == "{" && starts_with(lines[1], "  \"version\": ");
+      return lines.size() == 2 && lines[0] == "{" && lines[1].starts_with("  \"version\": ");
     }
     case OutputKind::depfile:
       return is_depfile_text(first_lines(path, 100000, 1 << 20));
     case OutputKind::chart: {
       // report::svg_plot's first two lines.
       const std::vector<std::string> lines = first_lines(path, 2, 4096);
-      return lines.size() == 2 && starts_with(lines[0], "<svg xmlns=\"http://www.w3.org/2000/svg\"") &&
+      return lines.size() == 2 &&
+             lines[0].starts_with("<svg xmlns=\"http://www.w3.org/2000/svg\"") &&
              lines[1] == "<rect width=\"100%\" height=\"100%\" fill=\"white\"/>";
     }
   }
@@ -353,13 +347,15 @@ void refuse_clashing_outputs(const std::vector<NamedOutput>& inputs,
       if (seen[i].first != key) continue;
       const NamedOutput& other = *seen[i].second;
       if (i < input_count)
-        throw BadInput(fmt::format("{} names '{}', which is {}: rungs never writes over what it "
-                                   "reads; name another file",
-                                   output.named_by, output.path, other.named_by));
+        throw BadInput(
+            fmt::format("{} names '{}', which is {}: rungs never writes over what it "
+                        "reads; name another file",
+                        output.named_by, output.path, other.named_by));
       if (key == "-")
-        throw BadInput(fmt::format("{} and {} both name standard output ('-'), which would mix "
-                                   "the two; send one of them to a file",
-                                   other.named_by, output.named_by));
+        throw BadInput(
+            fmt::format("{} and {} both name standard output ('-'), which would mix "
+                        "the two; send one of them to a file",
+                        other.named_by, output.named_by));
       throw BadInput(fmt::format("{} and {} both name '{}'; give each output its own file",
                                  other.named_by, output.named_by, output.path));
     }
